@@ -1,0 +1,129 @@
+// The reservation record and the reference data of a property (brief section 3).
+#pragma once
+
+#include "core/date.h"
+
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace cb {
+
+enum class ReservationStatus { Booked, Cancelled, NoShow, CheckedOut };
+
+/// Native names used in CSV files and the store: "booked", "cancelled", "no-show", "checked-out".
+std::string_view statusName(ReservationStatus s);
+std::optional<ReservationStatus> parseStatus(std::string_view name);
+
+/// One room-booking. A row with rooms > 1 counts that many rooms on each night it covers.
+/// nights = departure − arrival; 0 nights is a day use: kept, but it occupies no night.
+struct Reservation {
+  std::string id; ///< unique per property; a newer extract with the same id replaces the row
+  ReservationStatus status = ReservationStatus::Booked;
+  Date bookedOn;
+  std::optional<Date> cancelledOn; ///< set exactly when status == Cancelled
+  Date arrival;
+  Date departure;
+  int rooms = 1;
+  std::string roomType;
+  std::string segment;
+  std::string channel;
+  double rate = 0.0;    ///< per room-night, in `currency` (empty = the property's currency)
+  std::string currency; ///< ISO 4217 code or empty
+  std::string blockId;  ///< group block this booking belongs to, or empty
+
+  int nights() const { return departure - arrival; }
+  bool isDayUse() const { return nights() == 0; }
+  /// Covers night s (arrival <= s < departure).
+  bool covers(Date s) const { return arrival <= s && s < departure; }
+  /// On the books for night s as of reading date t (brief section 4: OTB definition).
+  bool onBooks(Date s, Date t) const {
+    return covers(s) && bookedOn <= t && !(cancelledOn && *cancelledOn <= t);
+  }
+  bool operator==(const Reservation &) const = default;
+};
+
+/// Checks the rules every reservation must satisfy, whatever file it came from.
+/// Returns an empty string when valid, else a message naming the field, e.g.
+/// "departure 2026-01-01 is before arrival 2026-01-03". `fieldOut` receives the native
+/// field name at fault so importers can point at a column.
+std::string validateReservation(const Reservation &r, std::string *fieldOut = nullptr);
+
+struct RoomType {
+  std::string code;
+  std::string name;
+  int rooms = 0;
+  bool operator==(const RoomType &) const = default;
+};
+
+struct Segment {
+  std::string code;
+  std::string name;
+  int yieldRank = 0;  ///< 1 = highest-paying; 0 = not ranked yet
+  std::string colour; ///< "#rrggbb" from the colour-blind-safe palette, or empty
+  bool operator==(const Segment &) const = default;
+};
+
+struct Channel {
+  std::string code;
+  std::string name;
+  bool operator==(const Channel &) const = default;
+};
+
+/// Capacity in force from `from` (inclusive) until the next change.
+struct CapacityChange {
+  Date from;
+  int rooms = 0;
+  std::string reason;
+  bool operator==(const CapacityChange &) const = default;
+};
+
+enum class StlyAlignment { Weekday364, CalendarDate };
+
+struct Property {
+  std::string name;
+  std::string currency = "EUR";
+  int capacity = 0; ///< base capacity; dated changes override from their date on
+  std::vector<CapacityChange> capacityChanges;
+  StlyAlignment stly = StlyAlignment::Weekday364;
+  double selloutMargin = 0.02; ///< a night within this share of capacity counts as sold out
+  /// Rooms available on night s: the latest change dated on or before s, else `capacity`.
+  int capacityOn(Date s) const;
+};
+
+enum class BlockStatus { Tentative, Definite };
+
+struct GroupBlock {
+  std::string id;
+  std::string name;
+  std::string segment;
+  Date arrival;
+  Date departure;
+  int roomsPerNight = 0;
+  Date cutoff;
+  BlockStatus status = BlockStatus::Definite;
+  bool operator==(const GroupBlock &) const = default;
+};
+
+enum class DenialKind { Denial, Regret };
+
+/// A request the hotel turned away (denial) or a guest who declined (regret).
+struct Denial {
+  Date requestedOn;
+  Date arrival;
+  Date departure;
+  int rooms = 1;
+  std::string segment;
+  DenialKind kind = DenialKind::Denial;
+  bool operator==(const Denial &) const = default;
+};
+
+struct EventNote {
+  Date from;
+  Date to; ///< inclusive
+  std::string label;
+  bool operator==(const EventNote &) const = default;
+};
+
+} // namespace cb

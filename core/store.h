@@ -1,0 +1,133 @@
+// The property store: one SQLite file per property (schema in store.cpp, migrations ordered).
+#pragma once
+
+#include "core/reservation.h"
+
+#include <cstdint>
+#include <filesystem>
+#include <map>
+#include <memory>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+namespace cb {
+
+class SqliteDb;
+
+/// Thrown for I/O failures and refused stores (newer schema, not a Curvebench store, …).
+class StoreError : public std::runtime_error {
+public:
+  using std::runtime_error::runtime_error;
+};
+
+/// One line of the import log.
+struct ImportLogEntry {
+  std::int64_t id = 0;
+  std::string file;
+  std::string sha256;
+  std::string kind;    ///< "reservations", "blocks", …
+  std::string profile; ///< "native" or the profile name
+  std::string mode;    ///< "strict" or "lenient"
+  std::int64_t rowsRead = 0;
+  std::int64_t added = 0;
+  std::int64_t updated = 0;
+  std::int64_t unchanged = 0;
+  std::int64_t rejected = 0;
+  std::string startedAt;  ///< UTC, ISO 8601 "YYYY-MM-DDTHH:MM:SSZ"
+  std::string finishedAt; ///< UTC
+};
+
+/// Outcome of writing one reservation.
+enum class UpsertResult { Added, Updated, Unchanged };
+
+/// Counts shown by `curvebench info` and the GUI summary.
+struct StoreSummary {
+  std::int64_t reservations = 0;
+  std::map<std::string, std::int64_t> byStatus;  ///< native status name → count
+  std::map<std::string, std::int64_t> bySegment; ///< segment code → count
+  std::map<std::string, std::int64_t> byChannel; ///< channel code → count
+  std::int64_t dayUse = 0;
+  std::optional<Date> firstArrival, lastArrival, firstBooked, lastBooked;
+  /// Newest booked_on or cancelled_on: the latest reading date the data supports.
+  std::optional<Date> lastActivity;
+  std::int64_t blocks = 0, denials = 0, events = 0;
+};
+
+/// A Curvebench property store. Not thread-safe: one Store per thread.
+/// Every write runs inside a transaction; a batch of writes shares one via Transaction.
+class Store {
+public:
+  static constexpr int kSchemaVersion = 1;
+
+  /// Creates a new store file; throws StoreError if the file exists.
+  static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
+  /// Opens an existing store. A newer schema is refused (StoreError naming both versions);
+  /// an older one is migrated after copying the file to "<path>.v<old>.bak".
+  static std::unique_ptr<Store> open(const std::filesystem::path &path);
+  ~Store();
+  Store(const Store &) = delete;
+  Store &operator=(const Store &) = delete;
+
+  const std::filesystem::path &path() const { return path_; }
+  int schemaVersion() const;
+
+  /// RAII transaction: commits on commit(), rolls back on destruction otherwise.
+  class Transaction {
+  public:
+    explicit Transaction(Store &store);
+    ~Transaction();
+    void commit();
+    Transaction(const Transaction &) = delete;
+    Transaction &operator=(const Transaction &) = delete;
+
+  private:
+    Store &store_;
+    bool done_ = false;
+  };
+
+  // Property and reference data.
+  Property property() const;
+  void setProperty(const Property &p); ///< name, currency, capacity, changes, settings
+  std::vector<RoomType> roomTypes() const;
+  std::vector<Segment> segments() const;
+  std::vector<Channel> channels() const;
+  void upsertRoomType(const RoomType &r);
+  void upsertSegment(const Segment &s);
+  void upsertChannel(const Channel &c);
+
+  // Reservations. upsertReservation must be called inside a Transaction; it creates missing
+  // segment / channel / room-type rows (code only) so foreign keys hold.
+  UpsertResult upsertReservation(const Reservation &r, std::int64_t importId);
+  std::vector<Reservation> reservations() const; ///< ordered by id
+  std::optional<Reservation> reservation(const std::string &id) const;
+  std::int64_t reservationCount() const;
+
+  // Other records.
+  void addGroupBlock(const GroupBlock &b);
+  std::vector<GroupBlock> groupBlocks() const;
+  void addDenial(const Denial &d);
+  std::vector<Denial> denials() const;
+  void addEvent(const EventNote &e);
+  std::vector<EventNote> events() const;
+
+  // Import log. beginImport() inserts a row and returns its id (inside the caller's
+  // transaction, so a rolled-back strict import leaves no row); finishImport() fills it in.
+  std::int64_t beginImport(const ImportLogEntry &e);
+  void finishImport(const ImportLogEntry &e); ///< e.id must be set
+  /// Logs an import that wrote nothing (strict failure) in its own transaction.
+  std::int64_t logFailedImport(const ImportLogEntry &e);
+  std::vector<ImportLogEntry> importLog() const;
+
+  StoreSummary summary() const;
+
+private:
+  Store(std::filesystem::path path, std::unique_ptr<SqliteDb> db);
+  std::filesystem::path path_;
+  std::unique_ptr<SqliteDb> db_;
+  struct Statements;
+  std::unique_ptr<Statements> stmts_;
+};
+
+} // namespace cb
