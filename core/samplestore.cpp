@@ -1,1 +1,39 @@
-// placeholder: implemented in this issue
+#include "core/samplestore.h"
+
+#include <fmt/format.h>
+
+namespace cb {
+
+ImportReport buildSampleStore(const std::filesystem::path &storePath, const SimulatorConfig &config) {
+  SampleProperty sample = simulateProperty(config);
+  auto store = Store::create(storePath, sample.property);
+  {
+    Store::Transaction tx(*store);
+    for (const auto &r : sample.roomTypes)
+      store->upsertRoomType(r);
+    for (const auto &s : sample.segments)
+      store->upsertSegment(s);
+    for (const auto &c : sample.channels)
+      store->upsertChannel(c);
+    for (const auto &e : sample.events)
+      store->addEvent(e);
+    for (const auto &b : sample.blocks)
+      store->addGroupBlock(b);
+    for (const auto &d : sample.denials)
+      store->addDenial(d);
+    tx.commit();
+  }
+  auto scratch = storePath;
+  scratch += ".sample-files";
+  std::filesystem::remove_all(scratch);
+  writeSampleFiles(sample, scratch);
+  ImportReport report = importReservations(*store, scratch / "reservations.csv");
+  std::filesystem::remove_all(scratch);
+  if (!report.written) {
+    std::string first = report.findings.empty() ? "unknown error" : report.findings.front().toString();
+    throw StoreError(fmt::format("the sample property did not import: {}", first));
+  }
+  return report;
+}
+
+} // namespace cb

@@ -1,0 +1,18 @@
+// Builds a ready-to-use store from the simulated sample property.
+#pragma once
+
+#include "core/reservationimporter.h"
+#include "core/simulator.h"
+
+#include <filesystem>
+
+namespace cb {
+
+/// Simulates the sample property, writes its files into a scratch folder beside `storePath`
+/// and loads them into a new store at `storePath` — reservations through the ordinary import
+/// pipeline, so the sample exercises the same code as a user's extract. Throws StoreError if
+/// the store exists or the import fails.
+ImportReport buildSampleStore(const std::filesystem::path &storePath,
+                              const SimulatorConfig &config = {});
+
+} // namespace cb

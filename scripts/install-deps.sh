@@ -1,0 +1,35 @@
+#!/usr/bin/env bash
+# Installs the Debian packages Curvebench builds, tests and runs with — only those missing.
+# Usage: scripts/install-deps.sh [--with-display-tools]
+set -euo pipefail
+
+packages=(
+  build-essential cmake ninja-build pkg-config git
+  qt6-base-dev libqcustomplot-dev libeigen3-dev libsqlite3-dev
+  libgtest-dev libgmock-dev libcli11-dev libhowardhinnant-date-dev nlohmann-json3-dev
+  libfmt-dev libboost-math-dev libboost-dev libssl-dev clang-format
+)
+if [[ "${1:-}" == "--with-display-tools" ]]; then
+  packages+=(xvfb xauth imagemagick)
+fi
+
+missing=()
+for p in "${packages[@]}"; do
+  if ! dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed"; then
+    missing+=("$p")
+  fi
+done
+
+if ((${#missing[@]} == 0)); then
+  exit 0
+fi
+
+echo "Installing missing packages: ${missing[*]}"
+if [[ $(id -u) -ne 0 ]]; then
+  SUDO=sudo
+else
+  SUDO=
+fi
+export DEBIAN_FRONTEND=noninteractive
+$SUDO apt-get update -qq
+$SUDO apt-get install -y -qq --no-install-recommends "${missing[@]}"

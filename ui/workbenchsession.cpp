@@ -1,0 +1,52 @@
+#include "ui/workbenchsession.h"
+
+#include "core/bookingcurve.h"
+
+namespace cbui {
+
+std::unique_ptr<WorkbenchSession> WorkbenchSession::open(const std::filesystem::path &store) {
+  auto s = std::unique_ptr<WorkbenchSession>(new WorkbenchSession());
+  auto db = cb::Store::open(store);
+  s->path_ = store;
+  s->property_ = db->property();
+  s->summary_ = db->summary();
+  s->segments_ = db->segments();
+  s->reservations_ = db->reservations();
+  s->readingDate_ = s->summary_.lastActivity.value_or(cb::Date::fromYmd(2000, 1, 1));
+  return s;
+}
+
+cb::Date WorkbenchSession::defaultNight() const {
+  cb::Date d = readingDate_ + 14;
+  while (d.isoWeekday() != 6)
+    ++d;
+  return d;
+}
+
+NightCurves WorkbenchSession::curves(cb::Date night, int maxLead, const std::string &segment) const {
+  NightCurves out;
+  out.night = night;
+  out.lastYearNight = property_.stly == cb::StlyAlignment::Weekday364
+                          ? night - 364
+                          : cb::Date::fromYmd(night.year() - 1, night.month(),
+                                              night.month() == 2 && night.day() == 29 ? 28 : night.day());
+  out.capacity = property_.capacityOn(night);
+  int known = night - readingDate_; // leads below this are after the reading date: unknown
+  if (known > 0)
+    out.readingLead = known;
+  auto fill = [&](CurveSeries &series, cb::Date n, int minLead) {
+    cb::NightCurve c = cb::bookingCurve(reservations_, n, maxLead, segment);
+    for (int d = maxLead; d >= std::max(minLead, 0); --d) {
+      series.x.push_back(-d);
+      series.y.push_back(c.rooms[static_cast<std::size_t>(d)]);
+    }
+  };
+  out.thisYear.label = "This year " + night.toIso();
+  out.lastYear.label = "Last year " + out.lastYearNight.toIso();
+  if (known <= maxLead)
+    fill(out.thisYear, night, known);
+  fill(out.lastYear, out.lastYearNight, out.lastYearNight - readingDate_);
+  return out;
+}
+
+} // namespace cbui

@@ -1,0 +1,59 @@
+// The ui-side model layer: one open store and the figures screens show, without widgets,
+// so everything a screen displays can be tested headless.
+#pragma once
+
+#include "core/reservation.h"
+#include "core/store.h"
+
+#include <filesystem>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace cbui {
+
+/// A curve ready to draw: x = days before arrival (as negative numbers, arrival at 0),
+/// y = rooms on the books.
+struct CurveSeries {
+  std::string label;
+  std::vector<double> x;
+  std::vector<double> y;
+};
+
+struct NightCurves {
+  cb::Date night;
+  cb::Date lastYearNight;
+  CurveSeries thisYear; ///< only leads the data reaches (d ≥ night − reading date)
+  CurveSeries lastYear;
+  int capacity = 0;
+  std::optional<int> readingLead; ///< lead of the reading date when the night is in the future
+};
+
+class WorkbenchSession {
+public:
+  /// Opens the store and loads its reservations; throws cb::StoreError.
+  static std::unique_ptr<WorkbenchSession> open(const std::filesystem::path &store);
+
+  const cb::Property &property() const { return property_; }
+  const cb::StoreSummary &summary() const { return summary_; }
+  const std::vector<cb::Segment> &segments() const { return segments_; }
+  const std::filesystem::path &path() const { return path_; }
+  /// Newest booking or cancellation date: the latest date the data is "as of".
+  cb::Date readingDate() const { return readingDate_; }
+  /// A sensible night to show first: the first Saturday two weeks or more after the reading date.
+  cb::Date defaultNight() const;
+  /// This year's and last year's (STLY alignment of the property) curve of `night`, leads
+  /// 0…maxLead, for one segment or all (empty).
+  NightCurves curves(cb::Date night, int maxLead, const std::string &segment = {}) const;
+
+private:
+  std::filesystem::path path_;
+  cb::Property property_;
+  cb::StoreSummary summary_;
+  std::vector<cb::Segment> segments_;
+  std::vector<cb::Reservation> reservations_;
+  cb::Date readingDate_;
+};
+
+} // namespace cbui
