@@ -27,24 +27,44 @@ struct TrueDemand {
   int sold = 0;          ///< room-nights accepted for this night
 };
 
+/// Rooms of one room type in force from `from` on (the type-level detail behind
+/// Property::capacityChanges).
+struct RoomTypeChange {
+  std::string roomType;
+  Date from;
+  int rooms = 0;
+};
+
 struct SampleProperty {
   Property property;
+  std::string town;
   std::vector<RoomType> roomTypes;
+  std::vector<RoomTypeChange> roomTypeChanges;
   std::vector<Segment> segments;
   std::vector<Channel> channels;
   std::vector<EventNote> events;
   std::vector<Reservation> reservations; ///< as of the reading date (no future activity)
   std::vector<GroupBlock> blocks;
+  /// Same order as `blocks`: the day each block's rooms were first held (contract date).
+  std::vector<Date> blockContractedOn;
   std::vector<Denial> denials;
-  std::vector<TrueDemand> trueDemand; ///< nights up to the reading date, by segment
+  /// Nights historyStart … readingDate, every segment, sorted by night then segment rank.
+  std::vector<TrueDemand> trueDemand;
   Date readingDate;
+
+  /// Rooms of `roomType` available on night s (the latest change on or before s, else the
+  /// type's base count). Group blocks hold standard rooms ("STD").
+  int roomsOfTypeOn(const std::string &roomType, Date s) const;
 };
 
 /// Deterministic for a given config on any platform (own RNG transforms, no std:: distributions).
+/// Example: `auto sample = cb::simulateProperty(); sample.reservations.size();`
 SampleProperty simulateProperty(const SimulatorConfig &config = {});
 
 /// Writes the sample files (reservations.csv in the native format, blocks.csv, denials.csv,
-/// true_demand.csv, property.json) into dir, creating it. Byte-identical for the same config.
+/// true_demand.csv, events.csv, property.json) into dir, creating it. Byte-identical for the
+/// same config: fixed number formats, LF line ends, sorted rows. Throws std::runtime_error when
+/// a file cannot be written.
 void writeSampleFiles(const SampleProperty &sample, const std::filesystem::path &dir);
 
 } // namespace cb
