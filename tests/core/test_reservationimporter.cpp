@@ -1,0 +1,426 @@
+#include "core/reservationimporter.h"
+
+#include "core/nativeformat.h"
+#include "core/sha256.h"
+
+#include "testsupport.h"
+
+#include <gtest/gtest.h>
+
+#include <algorithm>
+#include <chrono>
+#include <fstream>
+#include <regex>
+#include <sstream>
+
+namespace fs = std::filesystem;
+using cb::ImportMode;
+using cb::ImportOptions;
+using cbtest::hasFinding;
+
+namespace {
+
+const std::string kHeader = "reservation_id,status,booked_on,cancelled_on,arrival,departure,rooms,"
+                            "room_type,segment,channel,rate,currency,block_id\n";
+
+fs::path dataDir() { return cbtest::sourceDir() / "tests" / "data"; }
+
+std::unique_ptr<cb::Store> newStore(const cbtest::TempDir &dir) {
+  cb::Property p;
+  p.name = "Test house";
+  p.capacity = 40;
+  return cb::Store::create(dir / "store.cbstore", p);
+}
+
+std::string nativeCsv(const cb::Store &store) {
+  std::ostringstream out;
+  cb::writeNativeCsv(out, store.reservations());
+  return out.str();
+}
+
+std::vector<std::string> lines(const std::string &text) {
+  std::vector<std::string> out;
+  std::istringstream in(text);
+  for (std::string l; std::getline(in, l);)
+    if (!l.empty())
+      out.push_back(l);
+  return out;
+}
+
+} // namespace
+
+// ---- Broken inputs: tests/data/broken/<case>/{input.csv, expected.txt[, profile.json]} ----
+
+class BrokenInput : public ::testing::TestWithParam<std::string> {};
+
+TEST_P(BrokenInput, IsReportedAndLeavesTheStoreUnchanged) {
+  const fs::path dir = dataDir() / "broken" / GetParam();
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  auto base = cb::importReservations(*store, dataDir() / "baseline" / "reservations.csv");
+  ASSERT_TRUE(base.written);
+  ASSERT_FALSE(cb::hasErrors(base.findings));
+  const std::string before = nativeCsv(*store);
+  const auto count = store->reservationCount();
+  const auto logBefore = store->importLog().size();
+  ASSERT_EQ(count, 4);
+
+  for (auto mode : {ImportMode::Strict, ImportMode::Lenient}) {
+    SCOPED_TRACE(mode == ImportMode::Strict ? "strict" : "lenient");
+    ImportOptions opt;
+    opt.mode = mode;
+    if (fs::exists(dir / "profile.json"))
+      opt.profile = (dir / "profile.json").string();
+    auto rep = cb::importReservations(*store, dir / "input.csv", opt);
+    ASSERT_TRUE(cb::hasErrors(rep.findings));
+    for (const auto &expected : lines(cbtest::readFile(dir / "expected.txt")))
+      EXPECT_TRUE(hasFinding(rep.findings, expected));
+    if (mode == ImportMode::Strict) {
+      EXPECT_FALSE(rep.written);
+      EXPECT_EQ(store->reservationCount(), count);
+      EXPECT_EQ(nativeCsv(*store), before);
+      // the failed attempt is logged, with nothing added or updated
+      auto log = store->importLog();
+      ASSERT_EQ(log.size(), logBefore + 1);
+      EXPECT_EQ(log.back().added + log.back().updated + log.back().unchanged, 0);
+      EXPECT_EQ(log.back().mode, "strict");
+    } else if (!rep.written) {
+      // a file-level problem: lenient mode writes nothing either
+      EXPECT_EQ(nativeCsv(*store), before);
+    } else {
+      // a row-level problem: only that row is left out
+      EXPECT_GE(rep.log.rejected, 1);
+      EXPECT_EQ(rep.log.rowsRead,
+                rep.log.added + rep.log.updated + rep.log.unchanged + rep.log.rejected);
+    }
+  }
+}
+
+std::vector<std::string> brokenCases() {
+  std::vector<std::string> names;
+  for (const auto &e : fs::directory_iterator(dataDir() / "broken"))
+    names.push_back(e.path().filename().string());
+  std::sort(names.begin(), names.end());
+  return names;
+}
+
+INSTANTIATE_TEST_SUITE_P(Files, BrokenInput, ::testing::ValuesIn(brokenCases()),
+                         [](const auto &param) { return param.param; });
+
+TEST(ReservationImporter, EveryCaseOfTheIssueHasABrokenFile) {
+  // Issue 2 lists these bad inputs; each must stay covered by a folder above.
+  auto cases = brokenCases();
+  for (const char *name :
+       {"missing_required_column", "unknown_profile_column", "unparsable_date",
+        "departure_before_arrival", "cancelled_before_booked", "booked_after_arrival",
+        "negative_rooms", "negative_rate", "unknown_status", "duplicate_id", "semicolon_delimiter",
+        "non_utf8", "empty_file", "header_only", "truncated_last_line"})
+    EXPECT_NE(std::find(cases.begin(), cases.end(), name), cases.end()) << name;
+}
+
+TEST(ReservationImporter, RowLevelProblemsAreSplitLenientFileLevelOnesAreNot) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  ImportOptions opt;
+  opt.mode = ImportMode::Lenient;
+  auto row = cb::importReservations(*store, dataDir() / "broken/negative_rooms/input.csv", opt);
+  EXPECT_TRUE(row.written);
+  EXPECT_EQ(row.log.added, 3); // B1, A1, B3; B2 rejected
+  auto semi =
+      cb::importReservations(*store, dataDir() / "broken/semicolon_delimiter/input.csv", opt);
+  EXPECT_FALSE(semi.written);
+  auto trunc =
+      cb::importReservations(*store, dataDir() / "broken/truncated_last_line/input.csv", opt);
+  EXPECT_TRUE(trunc.written); // only the cut-off last row is rejected
+  EXPECT_EQ(trunc.log.rejected, 1);
+  EXPECT_EQ(trunc.log.unchanged, 2);
+}
+
+// ---- RFC 4180 golden cases: tests/data/import/<case>/{input.csv, expected.csv} ----
+
+class GoldenImport : public ::testing::TestWithParam<std::string> {};
+
+TEST_P(GoldenImport, StoresExactlyTheExpectedReservations) {
+  const fs::path dir = dataDir() / "import" / GetParam();
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  auto rep = cb::importReservations(*store, dir / "input.csv");
+  ASSERT_TRUE(rep.written);
+  EXPECT_FALSE(cb::hasErrors(rep.findings));
+  EXPECT_EQ(nativeCsv(*store), cbtest::readFile(dir / "expected.csv"));
+}
+
+INSTANTIATE_TEST_SUITE_P(Files, GoldenImport,
+                         ::testing::Values("quotes", "embedded_newline", "crlf", "bom",
+                                           "reordered_columns"),
+                         [](const auto &param) { return std::string(param.param); });
+
+TEST(ReservationImporter, ExtraColumnIsAWarningNotAnError) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  auto rep = cb::importReservations(*store, dataDir() / "import/reordered_columns/input.csv");
+  EXPECT_TRUE(rep.written);
+  EXPECT_TRUE(hasFinding(rep.findings,
+                         "input.csv:1:10: warning: column \"notes\" is not a native column; it "
+                         "is ignored"));
+}
+
+// ---- Lenient mode ----
+
+TEST(ReservationImporter, LenientWritesValidRowsAndTheRejectsFile) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const auto in = tmp / "mixed.csv";
+  cbtest::writeFile(
+      in, kHeader + "L1,booked,2026-01-01,,2026-02-01,2026-02-02,1,DBL,Leisure,Web,90,,\n"
+                    "L2,booked,2026-01-01,,2026-02-01,2026-02-02,1,DBL,Leisure,Web,-1,,\n"
+                    "L3,cancelled,2026-01-01,,2026-02-01,2026-02-02,1,DBL,\"Lei, sure\",Web,90,,\n"
+                    "L4,checked-out,2026-01-01,,2026-02-01,2026-02-03,2,DBL,Leisure,Web,95.5,,\n");
+  ImportOptions opt;
+  opt.mode = ImportMode::Lenient;
+  opt.rejectsFile = tmp / "rejects.csv";
+  auto rep = cb::importReservations(*store, in, opt);
+  EXPECT_TRUE(rep.written);
+  EXPECT_EQ(rep.log.rowsRead, 4);
+  EXPECT_EQ(rep.log.added, 2);
+  EXPECT_EQ(rep.log.rejected, 2);
+  EXPECT_TRUE(hasFinding(rep.findings, "mixed.csv:3:11: rate is negative (-1)"));
+  EXPECT_TRUE(
+      hasFinding(rep.findings, "mixed.csv:4:4: status is cancelled but cancelled_on is empty"));
+  ASSERT_TRUE(store->reservation("L1"));
+  ASSERT_TRUE(store->reservation("L4"));
+  EXPECT_EQ(store->reservation("L4")->rate, 95.5);
+  EXPECT_FALSE(store->reservation("L2"));
+  EXPECT_EQ(store->reservationCount(), 2);
+  EXPECT_EQ(cbtest::readFile(tmp / "rejects.csv"),
+            "reservation_id,status,booked_on,cancelled_on,arrival,departure,rooms,room_type,"
+            "segment,channel,rate,currency,block_id,problem\n"
+            "L2,booked,2026-01-01,,2026-02-01,2026-02-02,1,DBL,Leisure,Web,-1,,,rate is negative "
+            "(-1)\n"
+            "L3,cancelled,2026-01-01,,2026-02-01,2026-02-02,1,DBL,\"Lei, sure\",Web,90,,,status is "
+            "cancelled but cancelled_on is empty\n");
+  auto log = store->importLog();
+  ASSERT_EQ(log.size(), 1u);
+  EXPECT_EQ(log[0].mode, "lenient");
+  EXPECT_EQ(log[0].rejected, 2);
+  EXPECT_EQ(log[0].added, 2);
+}
+
+TEST(ReservationImporter, StrictIsTheDefaultAndWritesNothingOnAnyError) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const auto in = tmp / "one-bad.csv";
+  cbtest::writeFile(in, kHeader +
+                            "S1,booked,2026-01-01,,2026-02-01,2026-02-02,1,DBL,Leisure,Web,90,,\n"
+                            "S2,booked,2026-01-01,,2026-02-01,2026-02-02,0,DBL,Leisure,Web,90,,\n");
+  auto rep = cb::importReservations(*store, in);
+  EXPECT_FALSE(rep.written);
+  EXPECT_TRUE(hasFinding(rep.findings, "one-bad.csv:3:7: rooms is 0"));
+  EXPECT_EQ(store->reservationCount(), 0);
+  auto log = store->importLog();
+  ASSERT_EQ(log.size(), 1u);
+  EXPECT_EQ(log[0].rowsRead, 2);
+  EXPECT_EQ(log[0].rejected, 1);
+  EXPECT_EQ(log[0].added, 0);
+}
+
+// ---- Re-import ----
+
+TEST(ReservationImporter, NewerExtractUpdatesByIdAndNeverDuplicates) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const auto v1 = tmp / "extract-1.csv";
+  const auto v2 = tmp / "extract-2.csv";
+  cbtest::writeFile(
+      v1, kHeader + "E1,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
+                    "E2,booked,2026-01-02,,2026-03-01,2026-03-02,1,DBL,Corporate,Direct,120,,\n"
+                    "E3,booked,2026-01-03,,2026-03-05,2026-03-06,2,TWN,Group,Agency,70,,G1\n");
+  // E1 was cancelled since, E2 is the same, E4 is new.
+  cbtest::writeFile(
+      v2, kHeader +
+              "E1,cancelled,2026-01-01,2026-02-10,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
+              "E2,booked,2026-01-02,,2026-03-01,2026-03-02,1,DBL,Corporate,Direct,120,,\n"
+              "E4,booked,2026-02-11,,2026-03-07,2026-03-09,1,DBL,Leisure,Web,88,,\n");
+  auto first = cb::importReservations(*store, v1);
+  ASSERT_TRUE(first.written);
+  EXPECT_EQ(first.log.added, 3);
+  auto second = cb::importReservations(*store, v2);
+  ASSERT_TRUE(second.written);
+  EXPECT_EQ(second.log.added, 1);
+  EXPECT_EQ(second.log.updated, 1);
+  EXPECT_EQ(second.log.unchanged, 1);
+  EXPECT_EQ(store->reservationCount(), 4); // E3 stays: an extract need not repeat old rows
+  auto e1 = store->reservation("E1");
+  ASSERT_TRUE(e1);
+  EXPECT_EQ(e1->status, cb::ReservationStatus::Cancelled);
+  EXPECT_EQ(e1->cancelledOn, cb::Date::fromYmd(2026, 2, 10));
+  auto again = cb::importReservations(*store, v2);
+  EXPECT_EQ(again.log.added, 0);
+  EXPECT_EQ(again.log.updated, 0);
+  EXPECT_EQ(again.log.unchanged, 3);
+  EXPECT_EQ(store->reservationCount(), 4);
+}
+
+TEST(ReservationImporter, EveryImportIsLogged) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const auto in = dataDir() / "baseline" / "reservations.csv";
+  auto rep = cb::importReservations(*store, in);
+  ASSERT_TRUE(rep.written);
+  auto log = store->importLog();
+  ASSERT_EQ(log.size(), 1u);
+  const auto &e = log[0];
+  EXPECT_EQ(e.id, rep.log.id);
+  EXPECT_EQ(e.file, fs::absolute(in).lexically_normal().string());
+  EXPECT_EQ(e.sha256, cb::sha256File(in));
+  EXPECT_EQ(e.kind, "reservations");
+  EXPECT_EQ(e.profile, "native");
+  EXPECT_EQ(e.mode, "strict");
+  EXPECT_EQ(e.rowsRead, 4);
+  EXPECT_EQ(e.added, 4);
+  EXPECT_EQ(e.rejected, 0);
+  const std::regex utc(R"(\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}Z)");
+  EXPECT_TRUE(std::regex_match(e.startedAt, utc)) << e.startedAt;
+  EXPECT_TRUE(std::regex_match(e.finishedAt, utc)) << e.finishedAt;
+  EXPECT_LE(e.startedAt, e.finishedAt);
+  // a failed import (file-level problem) is logged too, with the file's checksum
+  auto bad = cb::importReservations(*store, dataDir() / "broken/non_utf8/input.csv");
+  log = store->importLog();
+  ASSERT_EQ(log.size(), 2u);
+  EXPECT_EQ(log[1].sha256, cb::sha256File(dataDir() / "broken/non_utf8/input.csv"));
+  EXPECT_EQ(log[1].added, 0);
+}
+
+// ---- Progress and cancel ----
+
+namespace {
+
+struct ProgressLog {
+  std::vector<std::int64_t> done;
+  std::int64_t total = 0;
+  int cancelAt = -1;
+};
+
+bool onProgress(void *ctx, std::int64_t done, std::int64_t total) {
+  auto *p = static_cast<ProgressLog *>(ctx);
+  p->done.push_back(done);
+  p->total = total;
+  return p->cancelAt < 0 || static_cast<int>(p->done.size()) < p->cancelAt;
+}
+
+fs::path writeManyRows(const cbtest::TempDir &tmp, int rows) {
+  std::string text = kHeader;
+  for (int i = 0; i < rows; ++i)
+    text += "M" + std::to_string(i) +
+            ",booked,2026-01-01,,2026-03-01,2026-03-02,1,DBL,Leisure,Web,90,,\n";
+  auto path = tmp / "many.csv";
+  cbtest::writeFile(path, text);
+  return path;
+}
+
+} // namespace
+
+TEST(ReservationImporter, ReportsProgressEvery4096Rows) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  auto path = writeManyRows(tmp, 10000);
+  ProgressLog p;
+  ImportOptions opt;
+  opt.progress = &onProgress;
+  opt.progressContext = &p;
+  auto rep = cb::importReservations(*store, path, opt);
+  ASSERT_TRUE(rep.written);
+  // rows 4096 and 8192, then once at the end; (done, total) are bytes of the file
+  ASSERT_EQ(p.done.size(), 3u);
+  EXPECT_EQ(p.total, static_cast<std::int64_t>(fs::file_size(path)));
+  EXPECT_LT(p.done[0], p.done[1]);
+  EXPECT_EQ(p.done[2], p.total);
+  EXPECT_EQ(store->reservationCount(), 10000);
+}
+
+TEST(ReservationImporter, CancelRollsBack) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  auto path = writeManyRows(tmp, 10000);
+  ProgressLog p;
+  p.cancelAt = 2;
+  ImportOptions opt;
+  opt.progress = &onProgress;
+  opt.progressContext = &p;
+  auto rep = cb::importReservations(*store, path, opt);
+  EXPECT_TRUE(rep.cancelled);
+  EXPECT_FALSE(rep.written);
+  EXPECT_EQ(rep.log.rowsRead, 8192);
+  EXPECT_EQ(store->reservationCount(), 0);
+  EXPECT_TRUE(hasFinding(rep.findings, "import cancelled after 8192 rows; nothing was written"));
+}
+
+TEST(ReservationImporter, UnknownProfileIsAFinding) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  ImportOptions opt;
+  opt.profile = "no-such-profile";
+  auto rep = cb::importReservations(*store, dataDir() / "baseline/reservations.csv", opt);
+  EXPECT_FALSE(rep.written);
+  EXPECT_TRUE(
+      hasFinding(rep.findings, "no-such-profile: no shipped mapping profile has this name"));
+  EXPECT_EQ(store->reservationCount(), 0);
+}
+
+// ---- The open dataset ----
+
+TEST(ReservationImporter, OpenCityHotelDataset) {
+  const fs::path csv = cbtest::openCityCsv();
+  if (!fs::exists(csv))
+    GTEST_SKIP() << "open dataset not found at " << csv;
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  ImportOptions opt;
+  opt.profile = "hotel-bookings-open-data";
+  auto t0 = std::chrono::steady_clock::now();
+  auto rep = cb::importReservations(*store, csv, opt);
+  auto seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+  std::printf("[ timing   ] open city dataset imported in %.2f s\n", seconds);
+  ASSERT_TRUE(rep.written);
+  EXPECT_FALSE(cb::hasErrors(rep.findings));
+
+  // Antonio, de Almeida & Nunes, "Hotel booking demand datasets", Data in Brief 22 (2019)
+  // 41-49, doi:10.1016/j.dib.2018.11.126 (CC BY 4.0): the city hotel (H2) has 79,330 bookings,
+  // 33,102 of them with is_canceled = 1 (cancellations and no-shows together).
+  EXPECT_EQ(rep.log.rowsRead, 79330);
+  EXPECT_EQ(rep.log.added, 79330);
+  auto s = store->summary();
+  EXPECT_EQ(s.reservations, 79330);
+  EXPECT_EQ(s.byStatus["cancelled"] + s.byStatus["no-show"], 33102);
+  // Split of that file by reservation_status and nights (counted from the file itself).
+  EXPECT_EQ(s.byStatus["checked-out"], 46228);
+  EXPECT_EQ(s.byStatus["cancelled"], 32186);
+  EXPECT_EQ(s.byStatus["no-show"], 916);
+  EXPECT_EQ(s.dayUse, 331);
+
+  // The first data row (line 2): 2015 July 1, 0 + 2 nights, lead time 6, adr 0, Check-Out.
+  auto first = store->reservation("2");
+  ASSERT_TRUE(first);
+  EXPECT_EQ(first->arrival, cb::Date::fromYmd(2015, 7, 1));
+  EXPECT_EQ(first->departure, cb::Date::fromYmd(2015, 7, 3));
+  EXPECT_EQ(first->bookedOn, cb::Date::fromYmd(2015, 6, 25));
+  EXPECT_EQ(first->status, cb::ReservationStatus::CheckedOut);
+  EXPECT_EQ(first->segment, "Offline TA/TO");
+  EXPECT_EQ(first->channel, "TA/TO");
+  EXPECT_EQ(first->roomType, "A");
+  EXPECT_FALSE(first->cancelledOn);
+  // Line 3: Canceled on its reservation_status_date 2015-07-01, adr 76.5, 4 week nights.
+  auto second = store->reservation("3");
+  ASSERT_TRUE(second);
+  EXPECT_EQ(second->status, cb::ReservationStatus::Cancelled);
+  EXPECT_EQ(second->cancelledOn, cb::Date::fromYmd(2015, 7, 1));
+  EXPECT_EQ(second->rate, 76.5);
+  EXPECT_EQ(second->nights(), 4);
+
+  auto again = cb::importReservations(*store, csv, opt);
+  ASSERT_TRUE(again.written);
+  EXPECT_EQ(again.log.added, 0);
+  EXPECT_EQ(again.log.updated, 0);
+  EXPECT_EQ(again.log.unchanged, 79330);
+  EXPECT_EQ(store->reservationCount(), 79330);
+}
