@@ -618,8 +618,8 @@ std::vector<RowProblem> MappingProfile::map(const CsvRecord &row, Reservation &o
                               fieldName(s.fromField)));
         else if (good)
           dates[fi] = *dates[base] + static_cast<int>(days);
-        else if (!failed[base] && !failed[fi] && !dates[base])
-          failed[fi] = true; // the base field is empty; it reports that itself
+        else
+          failed[fi] = true; // reported at the day columns or by the base field itself
       } else if (!text.empty()) {
         dates[fi] = s.dateFormat.empty() ? Date::parseIso(text) : Date::parse(text, s.dateFormat);
         if (!dates[fi])
