@@ -4,7 +4,7 @@
 // `apt-cache policy libsqlitecpp-dev`), so this is a choice, not a gap. The store needs only
 // open / exec / prepare / bind / step / column; every failure must become a cb::StoreError
 // carrying both sqlite3_errmsg and the SQL text; and dates travel as ISO text. That is about
-// 200 lines over the C API, against one more package for the install scripts and CI plus a
+// 300 lines over the C API, against one more package for the install scripts and CI plus a
 // translation layer from another library's exceptions. Revisit if this file grows much.
 #pragma once
 

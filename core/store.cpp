@@ -1,1 +1,822 @@
-// placeholder: implemented in this issue
+#include "core/store.h"
+
+#include "core/sha256.h"
+#include "core/sqlite.h"
+
+#include <fmt/format.h>
+
+#include <array>
+#include <fstream>
+#include <set>
+#include <stdexcept>
+#include <unordered_set>
+#include <utility>
+
+// Longer than most files here because it carries the schema text (the migrations) beside the
+// code that reads and writes it.
+
+namespace cb {
+namespace fs = std::filesystem;
+namespace {
+
+// Dates are ISO text 'YYYY-MM-DD' so the file reads plainly in any SQLite tool and sorts as text.
+// Optional codes (room type, segment, channel, block) are NULL when absent, so foreign keys
+// allow them.
+constexpr std::string_view kMigration1 = R"sql(
+CREATE TABLE property (
+  id INTEGER PRIMARY KEY CHECK (id = 1),
+  name TEXT NOT NULL,
+  currency TEXT NOT NULL,
+  capacity INTEGER NOT NULL CHECK (capacity >= 0),
+  stly_alignment TEXT NOT NULL CHECK (stly_alignment IN ('weekday-364', 'calendar-date')),
+  sellout_margin REAL NOT NULL CHECK (sellout_margin >= 0 AND sellout_margin <= 1),
+  -- thresholds still to come (season bands, …) as JSON, so they need no migration each
+  settings TEXT NOT NULL DEFAULT '{}' CHECK (json_valid(settings))
+);
+CREATE TABLE capacity_changes (
+  effective_from TEXT PRIMARY KEY,
+  rooms INTEGER NOT NULL CHECK (rooms >= 0),
+  reason TEXT NOT NULL DEFAULT ''
+);
+CREATE TABLE room_types (
+  code TEXT PRIMARY KEY CHECK (code <> ''),
+  name TEXT NOT NULL DEFAULT '',
+  rooms INTEGER NOT NULL DEFAULT 0
+);
+CREATE TABLE segments (
+  code TEXT PRIMARY KEY CHECK (code <> ''),
+  name TEXT NOT NULL DEFAULT '',
+  yield_rank INTEGER NOT NULL DEFAULT 0,
+  colour TEXT NOT NULL DEFAULT ''
+);
+CREATE TABLE channels (
+  code TEXT PRIMARY KEY CHECK (code <> ''),
+  name TEXT NOT NULL DEFAULT ''
+);
+CREATE TABLE import_log (
+  id INTEGER PRIMARY KEY,
+  file TEXT NOT NULL,
+  sha256 TEXT NOT NULL,
+  kind TEXT NOT NULL,
+  profile TEXT NOT NULL,
+  mode TEXT NOT NULL,
+  rows_read INTEGER NOT NULL,
+  added INTEGER NOT NULL,
+  updated INTEGER NOT NULL,
+  unchanged INTEGER NOT NULL,
+  rejected INTEGER NOT NULL,
+  started_at TEXT NOT NULL,
+  finished_at TEXT NOT NULL
+);
+CREATE TABLE reservations (
+  id TEXT PRIMARY KEY NOT NULL CHECK (id <> ''),
+  status TEXT NOT NULL CHECK (status IN ('booked', 'cancelled', 'no-show', 'checked-out')),
+  booked_on TEXT NOT NULL,
+  cancelled_on TEXT,
+  arrival TEXT NOT NULL,
+  departure TEXT NOT NULL CHECK (departure >= arrival),
+  rooms INTEGER NOT NULL CHECK (rooms > 0),
+  room_type TEXT REFERENCES room_types (code),
+  segment TEXT REFERENCES segments (code),
+  channel TEXT REFERENCES channels (code),
+  rate REAL NOT NULL,
+  currency TEXT NOT NULL DEFAULT '',
+  block_id TEXT,
+  import_id INTEGER REFERENCES import_log (id)
+);
+CREATE INDEX reservations_stay ON reservations (arrival, departure);
+CREATE INDEX reservations_segment ON reservations (segment);
+CREATE TABLE group_blocks (
+  id TEXT PRIMARY KEY NOT NULL CHECK (id <> ''),
+  name TEXT NOT NULL DEFAULT '',
+  segment TEXT REFERENCES segments (code),
+  arrival TEXT NOT NULL,
+  departure TEXT NOT NULL CHECK (departure >= arrival),
+  rooms_per_night INTEGER NOT NULL CHECK (rooms_per_night >= 0),
+  cutoff TEXT NOT NULL,
+  status TEXT NOT NULL CHECK (status IN ('tentative', 'definite'))
+);
+CREATE TABLE denials (
+  id INTEGER PRIMARY KEY,
+  requested_on TEXT NOT NULL,
+  arrival TEXT NOT NULL,
+  departure TEXT NOT NULL,
+  rooms INTEGER NOT NULL CHECK (rooms > 0),
+  segment TEXT REFERENCES segments (code),
+  kind TEXT NOT NULL CHECK (kind IN ('denial', 'regret'))
+);
+CREATE INDEX denials_arrival ON denials (arrival);
+CREATE TABLE events (
+  id INTEGER PRIMARY KEY,
+  starts_on TEXT NOT NULL,
+  ends_on TEXT NOT NULL CHECK (ends_on >= starts_on),
+  label TEXT NOT NULL
+);
+CREATE TABLE forecast_runs (
+  id INTEGER PRIMARY KEY,
+  created_at TEXT NOT NULL,
+  method TEXT NOT NULL,
+  parameters TEXT NOT NULL DEFAULT '{}' CHECK (json_valid(parameters)),
+  data_version TEXT NOT NULL,
+  reading_date TEXT NOT NULL
+);
+CREATE TABLE forecast_overrides (
+  id INTEGER PRIMARY KEY,
+  night TEXT NOT NULL,
+  segment TEXT REFERENCES segments (code), -- NULL: the whole hotel
+  value REAL NOT NULL,
+  reason TEXT NOT NULL DEFAULT '',
+  author TEXT NOT NULL DEFAULT '',
+  created_at TEXT NOT NULL
+);
+CREATE INDEX forecast_overrides_night ON forecast_overrides (night);
+)sql";
+
+constexpr std::string_view kMigration2 = R"sql(
+CREATE TABLE competitor_rates (
+  shop_date TEXT NOT NULL,
+  stay_date TEXT NOT NULL,
+  competitor TEXT NOT NULL,
+  rate REAL, -- NULL: the competitor showed no rate (sold out or closed)
+  PRIMARY KEY (shop_date, stay_date, competitor)
+);
+CREATE TABLE sales_closures (
+  id INTEGER PRIMARY KEY,
+  night TEXT NOT NULL,
+  segment TEXT REFERENCES segments (code), -- NULL: the whole hotel
+  closed_on TEXT NOT NULL,
+  reopened_on TEXT CHECK (reopened_on IS NULL OR reopened_on >= closed_on)
+);
+CREATE INDEX sales_closures_night ON sales_closures (night);
+)sql";
+
+// Index i migrates schema version i to i + 1; the size ties the list to kSchemaVersion.
+constexpr std::array<std::string_view, Store::kSchemaVersion> kMigrations = {kMigration1,
+                                                                             kMigration2};
+
+constexpr std::string_view kReservationColumns =
+    "id, status, booked_on, cancelled_on, arrival, departure, rooms, room_type, segment, channel, "
+    "rate, currency, block_id";
+
+std::string_view stlyName(StlyAlignment a) {
+  return a == StlyAlignment::CalendarDate ? "calendar-date" : "weekday-364";
+}
+std::string_view blockStatusName(BlockStatus s) {
+  return s == BlockStatus::Tentative ? "tentative" : "definite";
+}
+std::string_view denialKindName(DenialKind k) {
+  return k == DenialKind::Regret ? "regret" : "denial";
+}
+
+void rollbackQuietly(SqliteDb &db) noexcept {
+  try {
+    if (db.inTransaction())
+      db.exec("ROLLBACK");
+  } catch (...) {
+    // The original failure matters more than a failed rollback; SQLite rolls back on close.
+  }
+}
+
+/// Runs one write all-or-nothing: its own transaction, or a savepoint inside the caller's.
+template <class F> void writeTransaction(SqliteDb &db, F &&write) {
+  if (db.inTransaction()) {
+    db.exec("SAVEPOINT store_write");
+    try {
+      write();
+      db.exec("RELEASE store_write");
+    } catch (...) {
+      try {
+        db.exec("ROLLBACK TO store_write; RELEASE store_write");
+      } catch (...) {
+        // keep the original exception
+      }
+      throw;
+    }
+    return;
+  }
+  db.exec("BEGIN IMMEDIATE");
+  try {
+    write();
+    db.exec("COMMIT");
+  } catch (...) {
+    rollbackQuietly(db);
+    throw;
+  }
+}
+
+void configure(SqliteDb &db) {
+  // WAL: the GUI can read while an import writes, and a crash keeps the last commit intact.
+  // synchronous=NORMAL is safe from corruption in WAL mode; at worst the newest commit is lost
+  // on power failure, and an import can simply be re-run.
+  if (db.queryText("PRAGMA journal_mode = WAL") != "wal")
+    throw StoreError(fmt::format("{}: SQLite could not switch to WAL mode", db.path().string()));
+  db.exec("PRAGMA synchronous = NORMAL");
+  db.exec("PRAGMA cache_size = -65536");
+  db.exec("PRAGMA foreign_keys = ON");
+}
+
+void migrate(SqliteDb &db, int from, int to) {
+  // Later migrations may rebuild tables, which needs foreign keys off (SQLite's documented
+  // ALTER TABLE procedure); foreign_key_check restores the guarantee before each commit.
+  db.exec("PRAGMA foreign_keys = OFF");
+  for (int v = from; v < to; ++v) {
+    db.exec("BEGIN IMMEDIATE");
+    try {
+      db.exec(kMigrations[static_cast<std::size_t>(v)]);
+      if (db.queryInt64("SELECT count(*) FROM pragma_foreign_key_check") != 0)
+        throw StoreError(fmt::format("{}: migration to schema {} broke a foreign key",
+                                     db.path().string(), v + 1));
+      db.exec(fmt::format("PRAGMA user_version = {}", v + 1));
+      db.exec("COMMIT");
+    } catch (...) {
+      rollbackQuietly(db);
+      throw;
+    }
+  }
+  db.exec("PRAGMA foreign_keys = ON");
+}
+
+void writeProperty(SqliteDb &db, const Property &p) {
+  std::set<Date> days;
+  for (const auto &c : p.capacityChanges)
+    if (!days.insert(c.from).second)
+      throw StoreError(fmt::format("two capacity changes dated {}", c.from.toIso()));
+  auto st = db.prepare(
+      "INSERT INTO property (id, name, currency, capacity, stly_alignment, sellout_margin) "
+      "VALUES (1, ?1, ?2, ?3, ?4, ?5) ON CONFLICT (id) DO UPDATE SET name = excluded.name, "
+      "currency = excluded.currency, capacity = excluded.capacity, "
+      "stly_alignment = excluded.stly_alignment, sellout_margin = excluded.sellout_margin");
+  st.bind(1, p.name);
+  st.bind(2, p.currency);
+  st.bind(3, p.capacity);
+  st.bind(4, stlyName(p.stly));
+  st.bind(5, p.selloutMargin);
+  st.step();
+  db.exec("DELETE FROM capacity_changes");
+  auto ins = db.prepare(
+      "INSERT INTO capacity_changes (effective_from, rooms, reason) VALUES (?1, ?2, ?3)");
+  for (const auto &c : p.capacityChanges) {
+    ins.reset();
+    ins.bind(1, c.from);
+    ins.bind(2, c.rooms);
+    ins.bind(3, c.reason);
+    ins.step();
+  }
+}
+
+void removeStoreFiles(const fs::path &path) {
+  std::error_code ec;
+  for (const char *suffix : {"", "-wal", "-shm"}) {
+    fs::path p = path;
+    p += suffix;
+    fs::remove(p, ec);
+  }
+}
+
+std::unique_ptr<SqliteDb> createFile(const fs::path &path, const Property &property, int version) {
+  std::error_code ec;
+  if (fs::exists(path, ec))
+    throw StoreError(fmt::format("{} already exists; a new store needs a new file", path.string()));
+  try {
+    auto db = std::make_unique<SqliteDb>(path, SqliteDb::Mode::Create);
+    configure(*db);
+    migrate(*db, 0, version);
+    writeTransaction(*db, [&] { writeProperty(*db, property); });
+    return db;
+  } catch (...) {
+    removeStoreFiles(path); // a half-made store would later be refused or misread
+    throw;
+  }
+}
+
+bool hasSqliteHeader(const fs::path &path) {
+  static constexpr std::string_view magic("SQLite format 3\0", 16);
+  std::ifstream in(path, std::ios::binary);
+  std::array<char, 16> head{};
+  in.read(head.data(), head.size());
+  return in.gcount() == 16 && std::string_view(head.data(), head.size()) == magic;
+}
+
+[[noreturn]] void throwNotAStore(const fs::path &path) {
+  throw StoreError(fmt::format("{} is not a Curvebench store", path.string()));
+}
+
+void backupBeforeMigration(SqliteDb &db, const fs::path &path, std::int64_t version) {
+  // Fold the write-ahead log into the main file so that file alone is the whole store.
+  auto st = db.prepare("PRAGMA wal_checkpoint(TRUNCATE)");
+  st.step();
+  bool busy = st.columnInt64(0) != 0;
+  st.reset();
+  if (busy)
+    throw StoreError(fmt::format(
+        "cannot back up {} before upgrading it: another program is using it", path.string()));
+  fs::path backup = path;
+  backup += fmt::format(".v{}.bak", version);
+  std::error_code ec;
+  if (fs::exists(backup, ec)) {
+    // A retry after a failed upgrade finds its own copy; anything else is never overwritten.
+    if (sha256File(backup) == sha256File(path))
+      return;
+    throw StoreError(fmt::format("cannot back up {} before upgrading it: {} already exists; move "
+                                 "it away and open the store again",
+                                 path.string(), backup.string()));
+  }
+  if (!fs::copy_file(path, backup, fs::copy_options::none, ec) || ec)
+    throw StoreError(
+        fmt::format("cannot back up {} to {}: {}", path.string(), backup.string(), ec.message()));
+}
+
+void ensureCode(SqliteStatement &st, std::string_view code) {
+  if (code.empty())
+    return;
+  st.reset();
+  st.bind(1, code);
+  st.step();
+}
+
+void bindReservation(SqliteStatement &st, const Reservation &r, std::int64_t importId) {
+  st.reset();
+  st.bind(1, r.id);
+  st.bind(2, statusName(r.status));
+  st.bind(3, r.bookedOn);
+  st.bind(4, r.cancelledOn);
+  st.bind(5, r.arrival);
+  st.bind(6, r.departure);
+  st.bind(7, r.rooms);
+  st.bindTextOrNull(8, r.roomType);
+  st.bindTextOrNull(9, r.segment);
+  st.bindTextOrNull(10, r.channel);
+  st.bind(11, r.rate);
+  st.bind(12, r.currency);
+  st.bindTextOrNull(13, r.blockId);
+  if (importId > 0)
+    st.bind(14, importId);
+  else
+    st.bind(14, nullptr);
+}
+
+Reservation readReservation(const SqliteStatement &st) {
+  Reservation r;
+  r.id = st.columnText(0);
+  auto status = parseStatus(st.columnText(1));
+  if (!status)
+    throw StoreError(
+        fmt::format("reservation {} has an unknown status '{}'", r.id, st.columnText(1)));
+  r.status = *status;
+  r.bookedOn = st.columnDate(2);
+  r.cancelledOn = st.columnOptionalDate(3);
+  r.arrival = st.columnDate(4);
+  r.departure = st.columnDate(5);
+  r.rooms = st.columnInt(6);
+  r.roomType = st.columnText(7);
+  r.segment = st.columnText(8);
+  r.channel = st.columnText(9);
+  r.rate = st.columnDouble(10);
+  r.currency = st.columnText(11);
+  r.blockId = st.columnText(12);
+  return r;
+}
+
+void bindLogEntry(SqliteStatement &st, const ImportLogEntry &e) {
+  st.reset();
+  st.bind(1, e.file);
+  st.bind(2, e.sha256);
+  st.bind(3, e.kind);
+  st.bind(4, e.profile);
+  st.bind(5, e.mode);
+  st.bind(6, e.rowsRead);
+  st.bind(7, e.added);
+  st.bind(8, e.updated);
+  st.bind(9, e.unchanged);
+  st.bind(10, e.rejected);
+  st.bind(11, e.startedAt);
+  st.bind(12, e.finishedAt);
+}
+
+constexpr std::string_view kInsertLogEntry =
+    "INSERT INTO import_log (file, sha256, kind, profile, mode, rows_read, added, updated, "
+    "unchanged, rejected, started_at, finished_at) "
+    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)";
+
+} // namespace
+
+// Kept prepared for the life of the store: an import calls these once per row.
+struct Store::Statements {
+  explicit Statements(SqliteDb &db)
+      : addRoomTypeCode(db.prepare("INSERT OR IGNORE INTO room_types (code) VALUES (?1)", true)),
+        addSegmentCode(db.prepare("INSERT OR IGNORE INTO segments (code) VALUES (?1)", true)),
+        addChannelCode(db.prepare("INSERT OR IGNORE INTO channels (code) VALUES (?1)", true)),
+        // DO NOTHING only on a clashing id, unlike OR IGNORE, which would also swallow CHECK
+        // failures and make a bad row look "unchanged".
+        insertReservation(db.prepare(
+            "INSERT INTO reservations (id, status, booked_on, cancelled_on, arrival, departure, "
+            "rooms, room_type, segment, channel, rate, currency, block_id, import_id) VALUES "
+            "(?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14) "
+            "ON CONFLICT (id) DO NOTHING",
+            true)),
+        // Writes only when a stored field differs (IS NOT also compares NULLs), so the number
+        // of changed rows tells Updated from Unchanged exactly.
+        updateReservation(
+            db.prepare("UPDATE reservations SET status = ?2, booked_on = ?3, cancelled_on = ?4, "
+                       "arrival = ?5, departure = ?6, rooms = ?7, room_type = ?8, segment = ?9, "
+                       "channel = ?10, rate = ?11, currency = ?12, block_id = ?13, import_id = ?14 "
+                       "WHERE id = ?1 AND (status IS NOT ?2 OR booked_on IS NOT ?3 OR "
+                       "cancelled_on IS NOT ?4 OR arrival IS NOT ?5 OR departure IS NOT ?6 OR "
+                       "rooms IS NOT ?7 OR room_type IS NOT ?8 OR segment IS NOT ?9 OR "
+                       "channel IS NOT ?10 OR rate IS NOT ?11 OR currency IS NOT ?12 OR "
+                       "block_id IS NOT ?13)",
+                       true)) {}
+
+  SqliteStatement addRoomTypeCode, addSegmentCode, addChannelCode;
+  SqliteStatement insertReservation, updateReservation;
+
+  // Codes upsertReservation has already made sure of in the open transaction: an import sees
+  // the same few codes a million times. Only a rollback could remove them again, so the set
+  // lives no longer than one Transaction (cleared when one begins and when it ends).
+  std::unordered_set<std::string> knownCodes[3];
+  void ensure(int kind, SqliteStatement &st, const std::string &code) {
+    if (code.empty() || knownCodes[kind].count(code))
+      return;
+    ensureCode(st, code);
+    knownCodes[kind].insert(code);
+  }
+  void forgetCodes() {
+    for (auto &set : knownCodes)
+      set.clear();
+  }
+};
+
+// ---- opening and creating --------------------------------------------------------------------
+
+Store::Store(fs::path path, std::unique_ptr<SqliteDb> db)
+    : path_(std::move(path)), db_(std::move(db)), stmts_(std::make_unique<Statements>(*db_)) {}
+
+Store::~Store() = default;
+
+std::unique_ptr<Store> Store::create(const fs::path &path, const Property &property) {
+  auto db = createFile(path, property, kSchemaVersion);
+  return std::unique_ptr<Store>(new Store(path, std::move(db)));
+}
+
+void Store::createAtVersionForTesting(const fs::path &path, const Property &property, int version) {
+  if (version < 1 || version > kSchemaVersion)
+    throw std::invalid_argument(fmt::format("no schema version {}", version));
+  createFile(path, property, version);
+}
+
+std::unique_ptr<Store> Store::open(const fs::path &path) {
+  std::error_code ec;
+  if (!fs::exists(path, ec))
+    throw StoreError(fmt::format("{} does not exist", path.string()));
+  if (!fs::is_regular_file(path, ec) || !hasSqliteHeader(path))
+    throwNotAStore(path);
+  auto db = std::make_unique<SqliteDb>(path, SqliteDb::Mode::OpenExisting);
+  // Nothing is written before these checks: a refused file stays exactly as it was.
+  if (db->queryInt64("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = "
+                     "'property'") == 0)
+    throwNotAStore(path);
+  std::int64_t version = db->queryInt64("PRAGMA user_version");
+  if (version < 1)
+    throwNotAStore(path);
+  if (version > kSchemaVersion)
+    throw StoreError(fmt::format("{} was written by a newer Curvebench (schema {}; this build "
+                                 "reads up to {}); update Curvebench to open it",
+                                 path.string(), version, kSchemaVersion));
+  if (version < kSchemaVersion)
+    backupBeforeMigration(*db, path, version); // before configure(): WAL mode rewrites the header
+  configure(*db);
+  if (version < kSchemaVersion)
+    migrate(*db, static_cast<int>(version), kSchemaVersion);
+  return std::unique_ptr<Store>(new Store(path, std::move(db)));
+}
+
+int Store::schemaVersion() const {
+  return static_cast<int>(db_->queryInt64("PRAGMA user_version"));
+}
+
+// ---- transactions ----------------------------------------------------------------------------
+
+Store::Transaction::Transaction(Store &store) : store_(store) {
+  if (store_.db_->inTransaction())
+    throw std::logic_error("Store::Transaction: a transaction is already open on this store; "
+                           "transactions do not nest");
+  store_.stmts_->forgetCodes();
+  store_.db_->exec("BEGIN IMMEDIATE");
+}
+
+Store::Transaction::~Transaction() {
+  if (!done_)
+    rollbackQuietly(*store_.db_);
+  store_.stmts_->forgetCodes();
+}
+
+void Store::Transaction::commit() {
+  if (done_)
+    throw std::logic_error("Store::Transaction: commit() called twice");
+  store_.db_->exec("COMMIT");
+  done_ = true;
+  store_.stmts_->forgetCodes();
+}
+
+// ---- property and reference data -------------------------------------------------------------
+
+Property Store::property() const {
+  Property p;
+  auto st = db_->prepare("SELECT name, currency, capacity, stly_alignment, sellout_margin "
+                         "FROM property WHERE id = 1");
+  if (!st.step())
+    throw StoreError(fmt::format("{} has no property row", path_.string()));
+  p.name = st.columnText(0);
+  p.currency = st.columnText(1);
+  p.capacity = st.columnInt(2);
+  p.stly =
+      st.columnText(3) == "calendar-date" ? StlyAlignment::CalendarDate : StlyAlignment::Weekday364;
+  p.selloutMargin = st.columnDouble(4);
+  st.reset();
+  auto ch = db_->prepare(
+      "SELECT effective_from, rooms, reason FROM capacity_changes ORDER BY effective_from");
+  while (ch.step())
+    p.capacityChanges.push_back({ch.columnDate(0), ch.columnInt(1), ch.columnText(2)});
+  return p;
+}
+
+void Store::setProperty(const Property &p) {
+  writeTransaction(*db_, [&] { writeProperty(*db_, p); });
+}
+
+std::vector<RoomType> Store::roomTypes() const {
+  std::vector<RoomType> out;
+  auto st = db_->prepare("SELECT code, name, rooms FROM room_types ORDER BY code");
+  while (st.step())
+    out.push_back({st.columnText(0), st.columnText(1), st.columnInt(2)});
+  return out;
+}
+
+std::vector<Segment> Store::segments() const {
+  std::vector<Segment> out;
+  auto st = db_->prepare("SELECT code, name, yield_rank, colour FROM segments ORDER BY code");
+  while (st.step())
+    out.push_back({st.columnText(0), st.columnText(1), st.columnInt(2), st.columnText(3)});
+  return out;
+}
+
+std::vector<Channel> Store::channels() const {
+  std::vector<Channel> out;
+  auto st = db_->prepare("SELECT code, name FROM channels ORDER BY code");
+  while (st.step())
+    out.push_back({st.columnText(0), st.columnText(1)});
+  return out;
+}
+
+void Store::upsertRoomType(const RoomType &r) {
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare("INSERT INTO room_types (code, name, rooms) VALUES (?1, ?2, ?3) "
+                           "ON CONFLICT (code) DO UPDATE SET name = excluded.name, "
+                           "rooms = excluded.rooms");
+    st.bind(1, r.code);
+    st.bind(2, r.name);
+    st.bind(3, r.rooms);
+    st.step();
+  });
+}
+
+void Store::upsertSegment(const Segment &s) {
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare(
+        "INSERT INTO segments (code, name, yield_rank, colour) VALUES (?1, ?2, ?3, ?4) "
+        "ON CONFLICT (code) DO UPDATE SET name = excluded.name, yield_rank = excluded.yield_rank, "
+        "colour = excluded.colour");
+    st.bind(1, s.code);
+    st.bind(2, s.name);
+    st.bind(3, s.yieldRank);
+    st.bind(4, s.colour);
+    st.step();
+  });
+}
+
+void Store::upsertChannel(const Channel &c) {
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare("INSERT INTO channels (code, name) VALUES (?1, ?2) "
+                           "ON CONFLICT (code) DO UPDATE SET name = excluded.name");
+    st.bind(1, c.code);
+    st.bind(2, c.name);
+    st.step();
+  });
+}
+
+// ---- reservations ----------------------------------------------------------------------------
+
+UpsertResult Store::upsertReservation(const Reservation &r, std::int64_t importId) {
+  if (!db_->inTransaction())
+    throw std::logic_error("Store::upsertReservation must run inside a Store::Transaction");
+  auto &s = *stmts_;
+  s.ensure(0, s.addRoomTypeCode, r.roomType);
+  s.ensure(1, s.addSegmentCode, r.segment);
+  s.ensure(2, s.addChannelCode, r.channel);
+  bindReservation(s.insertReservation, r, importId);
+  s.insertReservation.step();
+  if (db_->changes() == 1)
+    return UpsertResult::Added;
+  bindReservation(s.updateReservation, r, importId);
+  s.updateReservation.step();
+  return db_->changes() == 1 ? UpsertResult::Updated : UpsertResult::Unchanged;
+}
+
+std::vector<Reservation> Store::reservations() const {
+  std::vector<Reservation> out;
+  auto st =
+      db_->prepare(fmt::format("SELECT {} FROM reservations ORDER BY id", kReservationColumns));
+  while (st.step())
+    out.push_back(readReservation(st));
+  return out;
+}
+
+std::optional<Reservation> Store::reservation(const std::string &id) const {
+  auto st =
+      db_->prepare(fmt::format("SELECT {} FROM reservations WHERE id = ?1", kReservationColumns));
+  st.bind(1, id);
+  if (!st.step())
+    return std::nullopt;
+  auto r = readReservation(st);
+  st.reset();
+  return r;
+}
+
+std::int64_t Store::reservationCount() const {
+  return db_->queryInt64("SELECT count(*) FROM reservations");
+}
+
+// ---- other records ---------------------------------------------------------------------------
+
+void Store::addGroupBlock(const GroupBlock &b) {
+  writeTransaction(*db_, [&] {
+    ensureCode(stmts_->addSegmentCode, b.segment);
+    auto st = db_->prepare(
+        "INSERT INTO group_blocks (id, name, segment, arrival, departure, rooms_per_night, cutoff, "
+        "status) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8) ON CONFLICT (id) DO UPDATE SET "
+        "name = excluded.name, segment = excluded.segment, arrival = excluded.arrival, "
+        "departure = excluded.departure, rooms_per_night = excluded.rooms_per_night, "
+        "cutoff = excluded.cutoff, status = excluded.status");
+    st.bind(1, b.id);
+    st.bind(2, b.name);
+    st.bindTextOrNull(3, b.segment);
+    st.bind(4, b.arrival);
+    st.bind(5, b.departure);
+    st.bind(6, b.roomsPerNight);
+    st.bind(7, b.cutoff);
+    st.bind(8, blockStatusName(b.status));
+    st.step();
+  });
+}
+
+std::vector<GroupBlock> Store::groupBlocks() const {
+  std::vector<GroupBlock> out;
+  auto st = db_->prepare("SELECT id, name, segment, arrival, departure, rooms_per_night, cutoff, "
+                         "status FROM group_blocks ORDER BY id");
+  while (st.step())
+    out.push_back(
+        {st.columnText(0), st.columnText(1), st.columnText(2), st.columnDate(3), st.columnDate(4),
+         st.columnInt(5), st.columnDate(6),
+         st.columnText(7) == "tentative" ? BlockStatus::Tentative : BlockStatus::Definite});
+  return out;
+}
+
+void Store::addDenial(const Denial &d) {
+  writeTransaction(*db_, [&] {
+    ensureCode(stmts_->addSegmentCode, d.segment);
+    auto st = db_->prepare("INSERT INTO denials (requested_on, arrival, departure, rooms, "
+                           "segment, kind) VALUES (?1, ?2, ?3, ?4, ?5, ?6)");
+    st.bind(1, d.requestedOn);
+    st.bind(2, d.arrival);
+    st.bind(3, d.departure);
+    st.bind(4, d.rooms);
+    st.bindTextOrNull(5, d.segment);
+    st.bind(6, denialKindName(d.kind));
+    st.step();
+  });
+}
+
+std::vector<Denial> Store::denials() const {
+  std::vector<Denial> out;
+  auto st = db_->prepare(
+      "SELECT requested_on, arrival, departure, rooms, segment, kind FROM denials ORDER BY id");
+  while (st.step())
+    out.push_back({st.columnDate(0), st.columnDate(1), st.columnDate(2), st.columnInt(3),
+                   st.columnText(4),
+                   st.columnText(5) == "regret" ? DenialKind::Regret : DenialKind::Denial});
+  return out;
+}
+
+void Store::addEvent(const EventNote &e) {
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare("INSERT INTO events (starts_on, ends_on, label) VALUES (?1, ?2, ?3)");
+    st.bind(1, e.from);
+    st.bind(2, e.to);
+    st.bind(3, e.label);
+    st.step();
+  });
+}
+
+std::vector<EventNote> Store::events() const {
+  std::vector<EventNote> out;
+  auto st = db_->prepare("SELECT starts_on, ends_on, label FROM events ORDER BY starts_on, id");
+  while (st.step())
+    out.push_back({st.columnDate(0), st.columnDate(1), st.columnText(2)});
+  return out;
+}
+
+// ---- import log ------------------------------------------------------------------------------
+
+std::int64_t Store::beginImport(const ImportLogEntry &e) {
+  std::int64_t id = 0;
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare(kInsertLogEntry);
+    bindLogEntry(st, e);
+    st.step();
+    id = db_->lastInsertRowid();
+  });
+  return id;
+}
+
+void Store::finishImport(const ImportLogEntry &e) {
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare(
+        "UPDATE import_log SET file = ?1, sha256 = ?2, kind = ?3, profile = ?4, mode = ?5, "
+        "rows_read = ?6, added = ?7, updated = ?8, unchanged = ?9, rejected = ?10, "
+        "started_at = ?11, finished_at = ?12 WHERE id = ?13");
+    bindLogEntry(st, e);
+    st.bind(13, e.id);
+    st.step();
+    if (db_->changes() != 1)
+      throw StoreError(fmt::format("{}: the import log has no entry {}", path_.string(), e.id));
+  });
+}
+
+std::int64_t Store::logFailedImport(const ImportLogEntry &e) {
+  if (db_->inTransaction())
+    throw std::logic_error("Store::logFailedImport runs in its own transaction; roll back first");
+  return beginImport(e);
+}
+
+std::vector<ImportLogEntry> Store::importLog() const {
+  std::vector<ImportLogEntry> out;
+  auto st =
+      db_->prepare("SELECT id, file, sha256, kind, profile, mode, rows_read, added, updated, "
+                   "unchanged, rejected, started_at, finished_at FROM import_log ORDER BY id");
+  while (st.step()) {
+    ImportLogEntry e;
+    e.id = st.columnInt64(0);
+    e.file = st.columnText(1);
+    e.sha256 = st.columnText(2);
+    e.kind = st.columnText(3);
+    e.profile = st.columnText(4);
+    e.mode = st.columnText(5);
+    e.rowsRead = st.columnInt64(6);
+    e.added = st.columnInt64(7);
+    e.updated = st.columnInt64(8);
+    e.unchanged = st.columnInt64(9);
+    e.rejected = st.columnInt64(10);
+    e.startedAt = st.columnText(11);
+    e.finishedAt = st.columnText(12);
+    out.push_back(std::move(e));
+  }
+  return out;
+}
+
+// ---- summary ---------------------------------------------------------------------------------
+
+StoreSummary Store::summary() const {
+  StoreSummary s;
+  auto st = db_->prepare("SELECT count(*), coalesce(sum(arrival = departure), 0), min(arrival), "
+                         "max(arrival), min(booked_on), max(booked_on), max(cancelled_on) "
+                         "FROM reservations");
+  st.step();
+  s.reservations = st.columnInt64(0);
+  s.dayUse = st.columnInt64(1);
+  s.firstArrival = st.columnOptionalDate(2);
+  s.lastArrival = st.columnOptionalDate(3);
+  s.firstBooked = st.columnOptionalDate(4);
+  s.lastBooked = st.columnOptionalDate(5);
+  auto lastCancelled = st.columnOptionalDate(6);
+  st.reset();
+  s.lastActivity = s.lastBooked;
+  if (lastCancelled && (!s.lastActivity || *lastCancelled > *s.lastActivity))
+    s.lastActivity = lastCancelled;
+
+  auto countBy = [&](std::string_view column, std::map<std::string, std::int64_t> &into) {
+    auto q = db_->prepare(
+        fmt::format("SELECT coalesce({0}, ''), count(*) FROM reservations GROUP BY {0}", column));
+    while (q.step())
+      into[q.columnText(0)] = q.columnInt64(1);
+  };
+  countBy("status", s.byStatus);
+  countBy("segment", s.bySegment);
+  countBy("channel", s.byChannel);
+
+  s.blocks = db_->queryInt64("SELECT count(*) FROM group_blocks");
+  s.denials = db_->queryInt64("SELECT count(*) FROM denials");
+  s.events = db_->queryInt64("SELECT count(*) FROM events");
+  return s;
+}
+
+} // namespace cb

@@ -59,13 +59,17 @@ struct StoreSummary {
 /// Every write runs inside a transaction; a batch of writes shares one via Transaction.
 class Store {
 public:
-  static constexpr int kSchemaVersion = 1;
+  static constexpr int kSchemaVersion = 2;
 
   /// Creates a new store file; throws StoreError if the file exists.
   static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
   /// Opens an existing store. A newer schema is refused (StoreError naming both versions);
   /// an older one is migrated after copying the file to "<path>.v<old>.bak".
   static std::unique_ptr<Store> open(const std::filesystem::path &path);
+  /// Test hook: creates a store at an older schema `version` (1 … kSchemaVersion), writes the
+  /// property and closes it, so tests can exercise the real migration path of open().
+  static void createAtVersionForTesting(const std::filesystem::path &path, const Property &property,
+                                        int version);
   ~Store();
   Store(const Store &) = delete;
   Store &operator=(const Store &) = delete;
@@ -98,19 +102,20 @@ public:
   void upsertChannel(const Channel &c);
 
   // Reservations. upsertReservation must be called inside a Transaction; it creates missing
-  // segment / channel / room-type rows (code only) so foreign keys hold.
+  // segment / channel / room-type rows (code only) so foreign keys hold. importId is the
+  // import_log row that wrote it (0 = none); an unchanged row keeps its earlier importId.
   UpsertResult upsertReservation(const Reservation &r, std::int64_t importId);
   std::vector<Reservation> reservations() const; ///< ordered by id
   std::optional<Reservation> reservation(const std::string &id) const;
   std::int64_t reservationCount() const;
 
   // Other records.
-  void addGroupBlock(const GroupBlock &b);
-  std::vector<GroupBlock> groupBlocks() const;
+  void addGroupBlock(const GroupBlock &b);     ///< a block with the same id is replaced
+  std::vector<GroupBlock> groupBlocks() const; ///< ordered by id
   void addDenial(const Denial &d);
-  std::vector<Denial> denials() const;
+  std::vector<Denial> denials() const; ///< in the order added
   void addEvent(const EventNote &e);
-  std::vector<EventNote> events() const;
+  std::vector<EventNote> events() const; ///< ordered by first day, then in the order added
 
   // Import log. beginImport() inserts a row and returns its id (inside the caller's
   // transaction, so a rolled-back strict import leaves no row); finishImport() fills it in.
@@ -121,6 +126,9 @@ public:
   std::vector<ImportLogEntry> importLog() const;
 
   StoreSummary summary() const;
+
+  /// Test hook: the store's own connection (its pragmas are per connection).
+  SqliteDb &sqliteForTesting() { return *db_; }
 
 private:
   Store(std::filesystem::path path, std::unique_ptr<SqliteDb> db);
