@@ -2,6 +2,8 @@
 
 #include <fmt/format.h>
 
+#include <cmath>
+
 namespace cb {
 
 std::string_view statusName(ReservationStatus s) {
@@ -47,6 +49,8 @@ std::string validateReservation(const Reservation &r, std::string *fieldOut) {
     return fail("rooms", fmt::format("rooms is negative ({})", r.rooms));
   if (r.rooms == 0)
     return fail("rooms", "rooms is 0; a reservation holds at least one room");
+  if (!std::isfinite(r.rate))
+    return fail("rate", "rate is not a finite number");
   if (r.rate < 0)
     return fail("rate", fmt::format("rate is negative ({})", r.rate));
   return {};
