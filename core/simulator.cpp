@@ -129,7 +129,7 @@ const IndividualModel &modelOf(SegmentIndex seg) {
   throw std::logic_error("no individual model for this segment");
 }
 
-/// Groups: a contract request holds a block of standard rooms; the rooming list arrives in
+/// Groups: a contract request holds a block of rooms; the rooming list arrives in
 /// batches before the cutoff, and what is not picked up by then is released (wash).
 struct GroupModel {
   double perDay = 0.22;
@@ -243,6 +243,7 @@ struct Group {
   std::string kind;
   Date contracted, arrival, cutoff;
   int nights = 1, rooms = 0;
+  std::size_t roomType = kStd;
   std::uint64_t order = 0;
   std::vector<std::size_t> pickups; // indices into requests
   bool accepted = false;
@@ -493,7 +494,7 @@ void Simulation::serveRequest(std::size_t ri, Date day, SampleProperty &out) {
   if (r.group >= 0) {
     // Rooming-list batch: the rooms are already held by the block.
     Group &g = groups_[static_cast<std::size_t>(r.group)];
-    bookings_.push_back({ri, kStd, g.rate});
+    bookings_.push_back({ri, g.roomType, g.rate});
     if (r.cancelOn == day)
       return;
     g.pickedActive += r.rooms;
@@ -532,7 +533,12 @@ void Simulation::serveRequest(std::size_t ri, Date day, SampleProperty &out) {
 
 void Simulation::serveGroup(std::size_t gi, Date day, SampleProperty &out) {
   Group &g = groups_[gi];
-  if (!fits(kStd, g.arrival, g.nights, g.rooms)) {
+  // The whole block in one room type: standard if it fits, else the first type that does.
+  std::optional<std::size_t> type;
+  for (std::size_t t = 0; t < kTypes && !type; ++t)
+    if (fits(t, g.arrival, g.nights, g.rooms))
+      type = t;
+  if (!type) {
     out.denials.push_back(
         {day, g.arrival, g.arrival + g.nights, g.rooms, kSegCodes[Grp], DenialKind::Denial});
     return;
@@ -544,7 +550,8 @@ void Simulation::serveGroup(std::size_t gi, Date day, SampleProperty &out) {
                     occupancyRateFactor(occupancy));
   g.rate = stayRate(rates);
   g.accepted = true;
-  hold(kStd, g.arrival, g.nights, g.rooms);
+  g.roomType = *type;
+  hold(g.roomType, g.arrival, g.nights, g.rooms);
   if (g.cutoff <= cfg_.readingDate)
     work(g.cutoff).releases.push_back(gi);
   for (std::size_t p : g.pickups)
@@ -579,7 +586,7 @@ void Simulation::simulate(SampleProperty &out) {
     DayWork &w = work(day);
     for (std::size_t gi : w.releases) {
       Group &g = groups_[gi];
-      hold(kStd, g.arrival, g.nights, -(g.rooms - g.pickedActive));
+      hold(g.roomType, g.arrival, g.nights, -(g.rooms - g.pickedActive));
       g.released = true;
     }
     for (std::size_t b : w.cancellations) {
@@ -622,7 +629,7 @@ void Simulation::finish(SampleProperty &out) {
         {g.id, fmt::format("{} {} {}", g.kind, months[g.arrival.month() - 1], g.arrival.year()),
          kSegCodes[Grp], g.arrival, g.arrival + g.nights, g.rooms, g.cutoff,
          tentative ? BlockStatus::Tentative : BlockStatus::Definite});
-    out.blockContractedOn.push_back(g.contracted);
+    out.blockDetails.push_back({g.contracted, kTypeCodes[g.roomType]});
   }
 
   // Bookings are already in processing order (day, then tie-break): ids follow it.
@@ -768,14 +775,17 @@ void writeSampleFiles(const SampleProperty &sample, const std::filesystem::path 
     writeFile(dir / "reservations.csv", os.str());
   }
   std::string blocks =
-      "block_id,name,segment,arrival,departure,rooms_per_night,cutoff,status,contracted_on\n";
+      "block_id,name,segment,arrival,departure,rooms_per_night,cutoff,status,contracted_on,"
+      "room_type\n";
   for (std::size_t i = 0; i < sample.blocks.size(); ++i) {
     const GroupBlock &b = sample.blocks[i];
-    blocks += fmt::format(
-        "{},{},{},{},{},{},{},{},{}\n", quoteCsvField(b.id), quoteCsvField(b.name),
-        quoteCsvField(b.segment), b.arrival.toIso(), b.departure.toIso(), b.roomsPerNight,
-        b.cutoff.toIso(), b.status == BlockStatus::Tentative ? "tentative" : "definite",
-        i < sample.blockContractedOn.size() ? sample.blockContractedOn[i].toIso() : std::string());
+    const BlockDetail detail =
+        i < sample.blockDetails.size() ? sample.blockDetails[i] : BlockDetail{};
+    blocks += fmt::format("{},{},{},{},{},{},{},{},{},{}\n", quoteCsvField(b.id),
+                          quoteCsvField(b.name), quoteCsvField(b.segment), b.arrival.toIso(),
+                          b.departure.toIso(), b.roomsPerNight, b.cutoff.toIso(),
+                          b.status == BlockStatus::Tentative ? "tentative" : "definite",
+                          detail.contractedOn.toIso(), quoteCsvField(detail.roomType));
   }
   writeFile(dir / "blocks.csv", blocks);
 

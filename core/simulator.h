@@ -35,6 +35,12 @@ struct RoomTypeChange {
   int rooms = 0;
 };
 
+/// What the simulator knows of a group block beyond GroupBlock (written to blocks.csv too).
+struct BlockDetail {
+  Date contractedOn;    ///< the day the block's rooms were first held
+  std::string roomType; ///< every room of the block is of this type
+};
+
 struct SampleProperty {
   Property property;
   std::string town;
@@ -45,15 +51,14 @@ struct SampleProperty {
   std::vector<EventNote> events;
   std::vector<Reservation> reservations; ///< as of the reading date (no future activity)
   std::vector<GroupBlock> blocks;
-  /// Same order as `blocks`: the day each block's rooms were first held (contract date).
-  std::vector<Date> blockContractedOn;
+  std::vector<BlockDetail> blockDetails; ///< same order as `blocks`
   std::vector<Denial> denials;
   /// Nights historyStart … readingDate, every segment, sorted by night then segment rank.
   std::vector<TrueDemand> trueDemand;
   Date readingDate;
 
   /// Rooms of `roomType` available on night s (the latest change on or before s, else the
-  /// type's base count). Group blocks hold standard rooms ("STD").
+  /// type's base count).
   int roomsOfTypeOn(const std::string &roomType, Date s) const;
 };
 
