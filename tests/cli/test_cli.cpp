@@ -6,14 +6,14 @@
 
 namespace {
 
-struct Run {
+struct CliRun {
   int code = -1;
   std::string out; ///< stdout and stderr together
 };
 
-Run run(const std::string &args) {
+CliRun run(const std::string &args) {
   std::string cmd = std::string("\"") + CURVEBENCH_CLI + "\" " + args + " 2>&1";
-  Run r;
+  CliRun r;
   FILE *p = popen(cmd.c_str(), "r");
   if (!p)
     return r;
@@ -35,7 +35,7 @@ const char *kHeader = "reservation_id,status,booked_on,cancelled_on,arrival,depa
 
 TEST(Cli, HelpOnEveryVerbExitsZero) {
   for (const char *verb : {"", "init", "import", "info", "sample"}) {
-    Run r = run(std::string(verb) + " --help");
+    CliRun r = run(std::string(verb) + " --help");
     EXPECT_EQ(r.code, 0) << verb << "\n" << r.out;
     EXPECT_NE(r.out.find("Usage"), std::string::npos) << verb;
   }
@@ -46,7 +46,7 @@ TEST(Cli, UsageErrorsExitTwo) {
   EXPECT_EQ(run("no-such-verb").code, 2);
   EXPECT_EQ(run("init only-a-store.curvebench").code, 2); // --name and --capacity missing
   cbtest::TempDir dir;
-  Run r = run("info " + q(dir / "missing.curvebench"));
+  CliRun r = run("info " + q(dir / "missing.curvebench"));
   EXPECT_EQ(r.code, 2);
   EXPECT_NE(r.out.find("missing.curvebench"), std::string::npos) << r.out;
 }
@@ -54,7 +54,7 @@ TEST(Cli, UsageErrorsExitTwo) {
 TEST(Cli, InitImportInfo) {
   cbtest::TempDir dir;
   auto store = dir / "h.curvebench";
-  Run init = run("init " + q(store) + " --name \"Test House\" --capacity 1200 --currency GBP");
+  CliRun init = run("init " + q(store) + " --name \"Test House\" --capacity 1200 --currency GBP");
   ASSERT_EQ(init.code, 0) << init.out;
   EXPECT_EQ(run("init " + q(store) + " --name X --capacity 5").code, 2) << "must not overwrite";
 
@@ -63,15 +63,15 @@ TEST(Cli, InitImportInfo) {
                              "A1,checked-out,2026-01-02,,2026-02-01,2026-02-03,2,STD,CORP,WEB,120.50,,\n"
                              "A2,cancelled,2026-01-05,2026-01-20,2026-02-01,2026-02-02,1,STD,FLEX,OTA,99,,\n"
                              "A3,booked,2026-01-06,,2026-03-01,2026-03-01,1,STD,CORP,WEB,0,,\n");
-  Run imp = run("import " + q(store) + " " + q(csv));
+  CliRun imp = run("import " + q(store) + " " + q(csv));
   ASSERT_EQ(imp.code, 0) << imp.out;
   EXPECT_NE(imp.out.find("added 3"), std::string::npos) << imp.out;
 
-  Run again = run("import " + q(store) + " " + q(csv));
+  CliRun again = run("import " + q(store) + " " + q(csv));
   ASSERT_EQ(again.code, 0) << again.out;
   EXPECT_NE(again.out.find("added 0, updated 0, unchanged 3"), std::string::npos) << again.out;
 
-  Run info = run("info " + q(store));
+  CliRun info = run("info " + q(store));
   ASSERT_EQ(info.code, 0) << info.out;
   EXPECT_NE(info.out.find("Test House"), std::string::npos) << info.out;
   EXPECT_NE(info.out.find("1,200 rooms"), std::string::npos) << info.out; // thousands separator
@@ -88,14 +88,14 @@ TEST(Cli, RejectedRowExitsOneAndNamesFileLineColumn) {
   cbtest::writeFile(csv, std::string(kHeader) +
                              "B1,booked,2026-01-02,,2026-02-01,2026-02-03,1,STD,CORP,WEB,100,,\n"
                              "B2,booked,2026-01-02,,2026-02-05,2026-02-03,1,STD,CORP,WEB,100,,\n");
-  Run strict = run("import " + q(store) + " " + q(csv));
+  CliRun strict = run("import " + q(store) + " " + q(csv));
   EXPECT_EQ(strict.code, 1) << strict.out;
   EXPECT_NE(strict.out.find("bad.csv:3:6:"), std::string::npos) << strict.out; // departure column
   EXPECT_NE(strict.out.find("nothing written"), std::string::npos) << strict.out;
   EXPECT_NE(run("info " + q(store)).out.find("Reservations  0"), std::string::npos);
 
   auto rejects = dir / "rejects.csv";
-  Run lenient = run("import " + q(store) + " " + q(csv) + " --lenient --rejects " + q(rejects));
+  CliRun lenient = run("import " + q(store) + " " + q(csv) + " --lenient --rejects " + q(rejects));
   EXPECT_EQ(lenient.code, 1) << lenient.out;
   EXPECT_NE(lenient.out.find("added 1"), std::string::npos) << lenient.out;
   EXPECT_NE(cbtest::readFile(rejects).find("B2"), std::string::npos);
@@ -103,7 +103,7 @@ TEST(Cli, RejectedRowExitsOneAndNamesFileLineColumn) {
 
 TEST(Cli, SampleReproducesCommittedFilesByteForByte) {
   cbtest::TempDir dir;
-  Run r = run("sample " + q(dir / "out"));
+  CliRun r = run("sample " + q(dir / "out"));
   ASSERT_EQ(r.code, 0) << r.out;
   int compared = 0;
   for (const auto &entry : std::filesystem::directory_iterator(dir / "out")) {
