@@ -63,7 +63,8 @@ int runSample(const std::string &outDir, const std::string &storePath) {
   cb::SampleProperty sample = cb::simulateProperty();
   cb::writeSampleFiles(sample, outDir);
   fmt::print("wrote the sample property \"{}\" ({} reservations, as of {}) to {}\n",
-             sample.property.name, cb::formatCount(static_cast<std::int64_t>(sample.reservations.size())),
+             sample.property.name,
+             cb::formatCount(static_cast<std::int64_t>(sample.reservations.size())),
              sample.readingDate.toIso(), outDir);
   if (!storePath.empty()) {
     auto rep = cb::buildSampleStore(storePath);
@@ -87,16 +88,20 @@ int main(int argc, char **argv) {
   auto *init = app.add_subcommand("init", "Create an empty store for one property");
   init->add_option("STORE", store, "Store file to create")->required();
   init->add_option("--name", name, "Property name")->required();
-  init->add_option("--capacity", capacity, "Rooms available")->required()->check(CLI::PositiveNumber);
+  init->add_option("--capacity", capacity, "Rooms available")
+      ->required()
+      ->check(CLI::PositiveNumber);
   init->add_option("--currency", currency, "ISO 4217 currency code (default EUR)");
 
   auto *imp = app.add_subcommand("import", "Import a reservation extract (one transaction)");
   imp->add_option("STORE", store, "Store file")->required()->check(CLI::ExistingFile);
   imp->add_option("FILE", file, "Reservation CSV")->required();
-  imp->add_option("--profile", profile,
-                  "Mapping profile: a shipped name (native, hotel-bookings-open-data) or a JSON path");
+  imp->add_option(
+      "--profile", profile,
+      "Mapping profile: a shipped name (native, hotel-bookings-open-data) or a JSON path");
   auto *strictFlag = imp->add_flag("--strict", strict, "Any rejected row: write nothing (default)");
-  imp->add_flag("--lenient", lenient, "Write the valid rows; report the rejects")->excludes(strictFlag);
+  imp->add_flag("--lenient", lenient, "Write the valid rows; report the rejects")
+      ->excludes(strictFlag);
   imp->add_option("--rejects", rejects, "With --lenient: copy rejected rows to this CSV");
 
   auto *info = app.add_subcommand("info", "Property, counts, date ranges and the import log");

@@ -54,7 +54,8 @@ int main(int argc, char **argv) {
   } else {
     QString dir = QStandardPaths::writableLocation(QStandardPaths::AppDataLocation);
     QDir().mkpath(dir);
-    std::filesystem::path store = std::filesystem::path(dir.toStdString()) / "sample-property.curvebench";
+    std::filesystem::path store =
+        std::filesystem::path(dir.toStdString()) / "sample-property.curvebench";
     if (std::filesystem::exists(store))
       window.openStore(store);
     else

@@ -9,9 +9,12 @@
 namespace cb {
 namespace {
 
-date::year_month_day ymd(Date d) { return date::year_month_day{date::sys_days{date::days{d.days()}}}; }
+date::year_month_day ymd(Date d) {
+  return date::year_month_day{date::sys_days{date::days{d.days()}}};
+}
 
-std::optional<int> parseDigits(std::string_view s, std::size_t &pos, std::size_t minLen, std::size_t maxLen) {
+std::optional<int> parseDigits(std::string_view s, std::size_t &pos, std::size_t minLen,
+                               std::size_t maxLen) {
   std::size_t start = pos;
   while (pos < s.size() && pos - start < maxLen && std::isdigit(static_cast<unsigned char>(s[pos])))
     ++pos;
@@ -25,7 +28,8 @@ std::optional<int> parseDigits(std::string_view s, std::size_t &pos, std::size_t
 std::optional<Date> make(int y, int m, int d) {
   if (y < 1 || y > 9999 || m < 1 || m > 12 || d < 1 || d > 31)
     return std::nullopt;
-  date::year_month_day v{date::year{y}, date::month{static_cast<unsigned>(m)}, date::day{static_cast<unsigned>(d)}};
+  date::year_month_day v{date::year{y}, date::month{static_cast<unsigned>(m)},
+                         date::day{static_cast<unsigned>(d)}};
   if (!v.ok())
     return std::nullopt;
   return Date::fromDays(static_cast<std::int32_t>(date::sys_days{v}.time_since_epoch().count()));
@@ -109,8 +113,8 @@ std::string Date::toIso() const {
 
 std::optional<unsigned> monthFromEnglishName(std::string_view name) {
   static constexpr std::array<std::string_view, 12> names = {
-      "january", "february", "march", "april", "may", "june",
-      "july", "august", "september", "october", "november", "december"};
+      "january", "february", "march",     "april",   "may",      "june",
+      "july",    "august",   "september", "october", "november", "december"};
   if (name.size() < 3)
     return std::nullopt;
   std::string lower(name);

@@ -32,8 +32,14 @@ public:
   constexpr Date operator+(int n) const { return Date(days_ + n); }
   constexpr Date operator-(int n) const { return Date(days_ - n); }
   constexpr int operator-(Date o) const { return days_ - o.days_; }
-  constexpr Date &operator+=(int n) { days_ += n; return *this; }
-  constexpr Date &operator++() { ++days_; return *this; }
+  constexpr Date &operator+=(int n) {
+    days_ += n;
+    return *this;
+  }
+  constexpr Date &operator++() {
+    ++days_;
+    return *this;
+  }
   constexpr auto operator<=>(const Date &) const = default;
 
 private:

@@ -41,7 +41,8 @@ std::string validateReservation(const Reservation &r, std::string *fieldOut) {
   if (r.status == ReservationStatus::Cancelled && !r.cancelledOn)
     return fail("cancelled_on", "status is cancelled but cancelled_on is empty");
   if (r.status != ReservationStatus::Cancelled && r.cancelledOn)
-    return fail("cancelled_on", fmt::format("cancelled_on is set but status is {}", statusName(r.status)));
+    return fail("cancelled_on",
+                fmt::format("cancelled_on is set but status is {}", statusName(r.status)));
   if (r.cancelledOn && *r.cancelledOn < r.bookedOn)
     return fail("cancelled_on", fmt::format("cancelled on {}, before it was booked on {}",
                                             r.cancelledOn->toIso(), r.bookedOn.toIso()));

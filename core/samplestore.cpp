@@ -4,7 +4,8 @@
 
 namespace cb {
 
-ImportReport buildSampleStore(const std::filesystem::path &storePath, const SimulatorConfig &config) {
+ImportReport buildSampleStore(const std::filesystem::path &storePath,
+                              const SimulatorConfig &config) {
   SampleProperty sample = simulateProperty(config);
   auto store = Store::create(storePath, sample.property);
   {
@@ -30,7 +31,8 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath, const Simu
   ImportReport report = importReservations(*store, scratch / "reservations.csv");
   std::filesystem::remove_all(scratch);
   if (!report.written) {
-    std::string first = report.findings.empty() ? "unknown error" : report.findings.front().toString();
+    std::string first =
+        report.findings.empty() ? "unknown error" : report.findings.front().toString();
     throw StoreError(fmt::format("the sample property did not import: {}", first));
   }
   return report;

@@ -18,9 +18,10 @@ void appendCounts(std::string &out, const char *title, const std::map<std::strin
   for (const auto &[k, v] : m)
     width = std::max(width, k.size());
   for (const auto &[k, v] : m)
-    out += fmt::format("  {:<{}}  {:>9}  {:>7}\n", k.empty() ? "(none)" : k, width, formatCount(v),
-                       total > 0 ? formatPercent(static_cast<double>(v) / static_cast<double>(total))
-                                 : std::string("-"));
+    out +=
+        fmt::format("  {:<{}}  {:>9}  {:>7}\n", k.empty() ? "(none)" : k, width, formatCount(v),
+                    total > 0 ? formatPercent(static_cast<double>(v) / static_cast<double>(total))
+                              : std::string("-"));
 }
 
 } // namespace
@@ -56,11 +57,12 @@ std::string formatStoreInfo(Store &store) {
   if (log.empty())
     out += "  (no imports yet)\n";
   for (const auto &e : log)
-    out += fmt::format("  #{} {} {} [{}, {}] read {} added {} updated {} unchanged {} rejected {} "
-                       "sha256 {}\n",
-                       e.id, e.finishedAt.empty() ? e.startedAt : e.finishedAt, e.file, e.profile,
-                       e.mode, formatCount(e.rowsRead), formatCount(e.added), formatCount(e.updated),
-                       formatCount(e.unchanged), formatCount(e.rejected), e.sha256.substr(0, 12));
+    out +=
+        fmt::format("  #{} {} {} [{}, {}] read {} added {} updated {} unchanged {} rejected {} "
+                    "sha256 {}\n",
+                    e.id, e.finishedAt.empty() ? e.startedAt : e.finishedAt, e.file, e.profile,
+                    e.mode, formatCount(e.rowsRead), formatCount(e.added), formatCount(e.updated),
+                    formatCount(e.unchanged), formatCount(e.rejected), e.sha256.substr(0, 12));
   return out;
 }
 

@@ -24,9 +24,12 @@
 namespace cbui {
 namespace {
 
-QDate toQDate(cb::Date d) { return QDate(d.year(), static_cast<int>(d.month()), static_cast<int>(d.day())); }
+QDate toQDate(cb::Date d) {
+  return QDate(d.year(), static_cast<int>(d.month()), static_cast<int>(d.day()));
+}
 cb::Date fromQDate(const QDate &d) {
-  return cb::Date::fromYmd(d.year(), static_cast<unsigned>(d.month()), static_cast<unsigned>(d.day()));
+  return cb::Date::fromYmd(d.year(), static_cast<unsigned>(d.month()),
+                           static_cast<unsigned>(d.day()));
 }
 
 // A background load gives either a session or the message of what went wrong.
@@ -93,8 +96,10 @@ MainWindow::MainWindow(QWidget *parent)
   progress_->hide();
   statusBar()->addPermanentWidget(progress_);
 
-  connect(prev, &QToolButton::clicked, this, [this] { nightEdit_->setDate(nightEdit_->date().addDays(-1)); });
-  connect(next, &QToolButton::clicked, this, [this] { nightEdit_->setDate(nightEdit_->date().addDays(1)); });
+  connect(prev, &QToolButton::clicked, this,
+          [this] { nightEdit_->setDate(nightEdit_->date().addDays(-1)); });
+  connect(next, &QToolButton::clicked, this,
+          [this] { nightEdit_->setDate(nightEdit_->date().addDays(1)); });
   connect(nightEdit_, &QDateEdit::dateChanged, this, [this] { refreshChart(); });
   connect(segmentCombo_, &QComboBox::currentIndexChanged, this, [this] { refreshChart(); });
   connect(leadSpin_, &QSpinBox::valueChanged, this, [this] { refreshChart(); });
@@ -153,14 +158,17 @@ void MainWindow::buildSampleAndOpen(const std::filesystem::path &store) {
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   session_ = std::move(session);
   summary_->showSession(*session_);
-  setWindowTitle(QStringLiteral("Curvebench — %1").arg(QString::fromStdString(session_->property().name)));
+  setWindowTitle(
+      QStringLiteral("Curvebench — %1").arg(QString::fromStdString(session_->property().name)));
   {
     QSignalBlocker block(segmentCombo_);
     segmentCombo_->clear();
     segmentCombo_->addItem(QStringLiteral("All segments"), QString());
     for (const auto &s : session_->segments()) {
       QString code = QString::fromStdString(s.code);
-      QString name = s.name.empty() ? code : QStringLiteral("%1 (%2)").arg(QString::fromStdString(s.name), code);
+      QString name = s.name.empty()
+                         ? code
+                         : QStringLiteral("%1 (%2)").arg(QString::fromStdString(s.name), code);
       segmentCombo_->addItem(name, code);
     }
   }
@@ -196,15 +204,19 @@ void MainWindow::refreshChart() {
                          : QStringLiteral("%1 rooms").arg(static_cast<int>(c.thisYear.y.back()));
   auto lastAtLead = valueAt(c.lastYear, lead);
   auto lastFinal = valueAt(c.lastYear, 0);
-  QString when = c.readingLead ? QStringLiteral("%1 days before arrival, on the books: %2").arg(lead).arg(thisText)
-                               : QStringLiteral("past night, final: %1").arg(thisText);
-  QString last = QStringLiteral("Same night last year (%1): %2 at the same point")
-                     .arg(QString::fromStdString(c.lastYearNight.toIso()),
-                          lastAtLead ? QStringLiteral("%1 rooms").arg(*lastAtLead) : QStringLiteral("–"));
+  QString when =
+      c.readingLead
+          ? QStringLiteral("%1 days before arrival, on the books: %2").arg(lead).arg(thisText)
+          : QStringLiteral("past night, final: %1").arg(thisText);
+  QString last =
+      QStringLiteral("Same night last year (%1): %2 at the same point")
+          .arg(QString::fromStdString(c.lastYearNight.toIso()),
+               lastAtLead ? QStringLiteral("%1 rooms").arg(*lastAtLead) : QStringLiteral("–"));
   if (c.readingLead && lastFinal)
     last += QStringLiteral(", final %1 rooms").arg(*lastFinal);
-  nightLabel_->setText(QStringLiteral("<b>%1</b> — %2. %3.")
-                           .arg(nightEdit_->date().toString(QStringLiteral("dddd d MMMM yyyy")), when, last));
+  nightLabel_->setText(
+      QStringLiteral("<b>%1</b> — %2. %3.")
+          .arg(nightEdit_->date().toString(QStringLiteral("dddd d MMMM yyyy")), when, last));
 }
 
 } // namespace cbui

@@ -6,9 +6,9 @@
 
 namespace cbui::palette {
 
-inline QColor thisYear() { return QColor(0x00, 0x72, 0xB2); } // blue
-inline QColor lastYear() { return QColor(0xE6, 0x9F, 0x00); } // orange
-inline QColor capacity() { return QColor(0x00, 0x00, 0x00); } // black
+inline QColor thisYear() { return QColor(0x00, 0x72, 0xB2); }    // blue
+inline QColor lastYear() { return QColor(0xE6, 0x9F, 0x00); }    // orange
+inline QColor capacity() { return QColor(0x00, 0x00, 0x00); }    // black
 inline QColor readingDate() { return QColor(0xCC, 0x79, 0xA7); } // reddish purple
 
 } // namespace cbui::palette

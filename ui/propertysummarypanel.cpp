@@ -13,7 +13,8 @@ QString q(const std::string &s) { return QString::fromStdString(s); }
 
 } // namespace
 
-PropertySummaryPanel::PropertySummaryPanel(QWidget *parent) : QWidget(parent), label_(new QLabel(this)) {
+PropertySummaryPanel::PropertySummaryPanel(QWidget *parent)
+    : QWidget(parent), label_(new QLabel(this)) {
   auto *layout = new QVBoxLayout(this);
   layout->addWidget(label_);
   layout->addStretch();
@@ -43,8 +44,10 @@ void PropertySummaryPanel::showSession(const WorkbenchSession &session) {
   row(QStringLiteral("· on the books"), count("booked"));
   row(QStringLiteral("· cancelled"), count("cancelled"));
   row(QStringLiteral("· no-shows"), count("no-show"));
-  row(QStringLiteral("Arrivals from"), s.firstArrival ? q(s.firstArrival->toIso()) : QStringLiteral("–"));
-  row(QStringLiteral("Arrivals to"), s.lastArrival ? q(s.lastArrival->toIso()) : QStringLiteral("–"));
+  row(QStringLiteral("Arrivals from"),
+      s.firstArrival ? q(s.firstArrival->toIso()) : QStringLiteral("–"));
+  row(QStringLiteral("Arrivals to"),
+      s.lastArrival ? q(s.lastArrival->toIso()) : QStringLiteral("–"));
   row(QStringLiteral("Segments"), QString::number(session.segments().size()));
   row(QStringLiteral("Group blocks"), q(cb::formatCount(s.blocks)));
   row(QStringLiteral("Denials / regrets"), q(cb::formatCount(s.denials)));

@@ -28,8 +28,9 @@ CliRun run(const std::string &args) {
 
 std::string q(const std::filesystem::path &p) { return "\"" + p.string() + "\""; }
 
-const char *kHeader = "reservation_id,status,booked_on,cancelled_on,arrival,departure,rooms,room_type,"
-                      "segment,channel,rate,currency,block_id\n";
+const char *kHeader =
+    "reservation_id,status,booked_on,cancelled_on,arrival,departure,rooms,room_type,"
+    "segment,channel,rate,currency,block_id\n";
 
 } // namespace
 
@@ -59,10 +60,11 @@ TEST(Cli, InitImportInfo) {
   EXPECT_EQ(run("init " + q(store) + " --name X --capacity 5").code, 2) << "must not overwrite";
 
   auto csv = dir / "res.csv";
-  cbtest::writeFile(csv, std::string(kHeader) +
-                             "A1,checked-out,2026-01-02,,2026-02-01,2026-02-03,2,STD,CORP,WEB,120.50,,\n"
-                             "A2,cancelled,2026-01-05,2026-01-20,2026-02-01,2026-02-02,1,STD,FLEX,OTA,99,,\n"
-                             "A3,booked,2026-01-06,,2026-03-01,2026-03-01,1,STD,CORP,WEB,0,,\n");
+  cbtest::writeFile(
+      csv, std::string(kHeader) +
+               "A1,checked-out,2026-01-02,,2026-02-01,2026-02-03,2,STD,CORP,WEB,120.50,,\n"
+               "A2,cancelled,2026-01-05,2026-01-20,2026-02-01,2026-02-02,1,STD,FLEX,OTA,99,,\n"
+               "A3,booked,2026-01-06,,2026-03-01,2026-03-01,1,STD,CORP,WEB,0,,\n");
   CliRun imp = run("import " + q(store) + " " + q(csv));
   ASSERT_EQ(imp.code, 0) << imp.out;
   EXPECT_NE(imp.out.find("added 3"), std::string::npos) << imp.out;

@@ -7,7 +7,8 @@
 TEST(Architecture, NoCoreFileIncludesQt) {
   const std::regex qtInclude(R"(^\s*#\s*include\s*[<"](Q[A-Za-z]|qt|qcustomplot))");
   int scanned = 0;
-  for (const auto &entry : std::filesystem::recursive_directory_iterator(cbtest::sourceDir() / "core")) {
+  for (const auto &entry :
+       std::filesystem::recursive_directory_iterator(cbtest::sourceDir() / "core")) {
     auto ext = entry.path().extension();
     if (ext != ".h" && ext != ".cpp")
       continue;

@@ -13,7 +13,9 @@ std::filesystem::path sharedDir() {
     return env;
   return CURVEBENCH_SHARED_DIR;
 }
-std::filesystem::path openCityCsv() { return sharedDir() / "data" / "open" / "hotel_bookings_city.csv"; }
+std::filesystem::path openCityCsv() {
+  return sharedDir() / "data" / "open" / "hotel_bookings_city.csv";
+}
 
 TempDir::TempDir() {
   std::random_device rd;
@@ -50,8 +52,8 @@ std::string readFile(const std::filesystem::path &p) {
       return ::testing::AssertionSuccess();
     all += "\n  " + s;
   }
-  return ::testing::AssertionFailure() << "no finding contains \"" << needle << "\"; findings:"
-                                       << (all.empty() ? " (none)" : all);
+  return ::testing::AssertionFailure() << "no finding contains \"" << needle
+                                       << "\"; findings:" << (all.empty() ? " (none)" : all);
 }
 
 } // namespace cbtest

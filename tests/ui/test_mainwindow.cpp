@@ -41,7 +41,8 @@ void fillStore(const std::filesystem::path &path) {
   cb::Store::Transaction tx(*store);
   store->upsertReservation(res("a", "2026-05-01", "2026-06-12", "2026-06-14", 3, "CORP"), 0);
   store->upsertReservation(res("b", "2026-06-03", "2026-06-13", "2026-06-14", 2, "FLEX"), 0);
-  store->upsertReservation(res("c", "2026-05-20", "2026-06-13", "2026-06-15", 4, "FLEX", "2026-06-10"), 0);
+  store->upsertReservation(
+      res("c", "2026-05-20", "2026-06-13", "2026-06-15", 4, "FLEX", "2026-06-10"), 0);
   store->upsertReservation(res("ly", "2025-06-01", "2025-06-14", "2025-06-15", 5, "CORP"), 0);
   store->upsertReservation(res("z", "2026-06-20", "2026-07-01", "2026-07-02", 1, "CORP"), 0);
   tx.commit();
