@@ -64,6 +64,7 @@ MainWindow::MainWindow(QWidget *parent)
   next->setShortcut(QKeySequence(Qt::ALT | Qt::Key_Right));
   nightEdit_->setDisplayFormat(QStringLiteral("ddd d MMM yyyy"));
   nightEdit_->setCalendarPopup(true);
+  segmentCombo_->setSizeAdjustPolicy(QComboBox::AdjustToContents);
   leadSpin_->setRange(7, 365);
   leadSpin_->setValue(120);
   leadSpin_->setSuffix(QStringLiteral(" days"));
@@ -89,6 +90,7 @@ MainWindow::MainWindow(QWidget *parent)
   split->addWidget(summary_);
   split->addWidget(right);
   split->setStretchFactor(1, 1);
+  summary_->setMinimumWidth(250);
   setCentralWidget(split);
 
   progress_->setRange(0, 0);
