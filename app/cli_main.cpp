@@ -67,7 +67,7 @@ int runSample(const std::string &outDir, const std::string &storePath) {
              cb::formatCount(static_cast<std::int64_t>(sample.reservations.size())),
              sample.readingDate.toIso(), outDir);
   if (!storePath.empty()) {
-    auto rep = cb::buildSampleStore(storePath);
+    auto rep = cb::buildSampleStore(storePath, outDir);
     fmt::print("built the store {} ({} reservations)\n", storePath, cb::formatCount(rep.log.added));
   }
   return kOk;

@@ -5,6 +5,7 @@
 namespace cb {
 
 ImportReport buildSampleStore(const std::filesystem::path &storePath,
+                              const std::filesystem::path &filesDir,
                               const SimulatorConfig &config) {
   SampleProperty sample = simulateProperty(config);
   auto store = Store::create(storePath, sample.property);
@@ -24,12 +25,8 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
       store->addDenial(d);
     tx.commit();
   }
-  auto scratch = storePath;
-  scratch += ".sample-files";
-  std::filesystem::remove_all(scratch);
-  writeSampleFiles(sample, scratch);
-  ImportReport report = importReservations(*store, scratch / "reservations.csv");
-  std::filesystem::remove_all(scratch);
+  writeSampleFiles(sample, filesDir);
+  ImportReport report = importReservations(*store, filesDir / "reservations.csv");
   if (!report.written) {
     std::string first =
         report.findings.empty() ? "unknown error" : report.findings.front().toString();

@@ -8,11 +8,12 @@
 
 namespace cb {
 
-/// Simulates the sample property, writes its files into a scratch folder beside `storePath`
-/// and loads them into a new store at `storePath` — reservations through the ordinary import
-/// pipeline, so the sample exercises the same code as a user's extract. Throws StoreError if
-/// the store exists or the import fails.
+/// Simulates the sample property, writes its files into `filesDir` (kept, so the import log
+/// points at a real file) and loads them into a new store at `storePath` — reservations through
+/// the ordinary import pipeline, so the sample exercises the same code as a user's extract.
+/// Throws StoreError if the store exists or the import fails.
 ImportReport buildSampleStore(const std::filesystem::path &storePath,
+                              const std::filesystem::path &filesDir,
                               const SimulatorConfig &config = {});
 
 } // namespace cb

@@ -37,8 +37,10 @@ using LoadResult = std::variant<std::shared_ptr<WorkbenchSession>, QString>;
 
 LoadResult loadSession(const std::filesystem::path &store, bool buildSampleFirst) {
   try {
-    if (buildSampleFirst)
-      cb::buildSampleStore(store);
+    if (buildSampleFirst) {
+      auto files = store.parent_path() / "sample-files";
+      cb::buildSampleStore(store, files);
+    }
     return std::shared_ptr<WorkbenchSession>(WorkbenchSession::open(store));
   } catch (const std::exception &e) {
     return QString::fromStdString(e.what());
