@@ -28,6 +28,9 @@ struct ImportReport {
   Findings findings;    ///< every rejected row and every file-level problem
   bool written = false; ///< true when the transaction committed
   bool cancelled = false;
+  /// The file, the profile or the rejects file could not be opened, read or written (as opposed
+  /// to problems in the data): the CLI exits 2 rather than 1.
+  bool ioOrUsageError = false;
 };
 
 /// Imports a reservation extract into the store. Strict: any error → nothing written.
