@@ -150,9 +150,18 @@ CREATE TABLE sales_closures (
 CREATE INDEX sales_closures_night ON sales_closures (night);
 )sql";
 
+// The import log says whether an import was written, failed or cancelled, so a failed strict run
+// is never read as a committed one. Rows logged before this schema are inferred from their counts.
+constexpr std::string_view kMigration3 = R"sql(
+ALTER TABLE import_log ADD COLUMN outcome TEXT NOT NULL DEFAULT 'written'
+  CHECK (outcome IN ('written', 'failed', 'cancelled'));
+UPDATE import_log SET outcome = CASE WHEN added + updated + unchanged > 0 THEN 'written'
+                                     ELSE 'failed' END;
+)sql";
+
 // Index i migrates schema version i to i + 1; the size ties the list to kSchemaVersion.
-constexpr std::array<std::string_view, Store::kSchemaVersion> kMigrations = {kMigration1,
-                                                                             kMigration2};
+constexpr std::array<std::string_view, Store::kSchemaVersion> kMigrations = {
+    kMigration1, kMigration2, kMigration3};
 
 constexpr std::string_view kReservationColumns =
     "id, status, booked_on, cancelled_on, arrival, departure, rooms, room_type, segment, channel, "
@@ -377,7 +386,7 @@ Reservation readReservation(const SqliteStatement &st) {
   return r;
 }
 
-void bindLogEntry(SqliteStatement &st, const ImportLogEntry &e) {
+void bindLogEntry(SqliteStatement &st, const ImportLogEntry &e, std::string_view defaultOutcome) {
   st.reset();
   st.bind(1, e.file);
   st.bind(2, e.sha256);
@@ -391,12 +400,13 @@ void bindLogEntry(SqliteStatement &st, const ImportLogEntry &e) {
   st.bind(10, e.rejected);
   st.bind(11, e.startedAt);
   st.bind(12, e.finishedAt);
+  st.bind(13, e.outcome.empty() ? defaultOutcome : std::string_view(e.outcome));
 }
 
 constexpr std::string_view kInsertLogEntry =
     "INSERT INTO import_log (file, sha256, kind, profile, mode, rows_read, added, updated, "
-    "unchanged, rejected, started_at, finished_at) "
-    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12)";
+    "unchanged, rejected, started_at, finished_at, outcome) "
+    "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13)";
 
 } // namespace
 
@@ -727,11 +737,13 @@ std::vector<EventNote> Store::events() const {
 
 // ---- import log ------------------------------------------------------------------------------
 
-std::int64_t Store::beginImport(const ImportLogEntry &e) {
+std::int64_t Store::beginImport(const ImportLogEntry &e) { return insertLogEntry(e, "written"); }
+
+std::int64_t Store::insertLogEntry(const ImportLogEntry &e, std::string_view defaultOutcome) {
   std::int64_t id = 0;
   writeTransaction(*db_, [&] {
     auto st = db_->prepare(kInsertLogEntry);
-    bindLogEntry(st, e);
+    bindLogEntry(st, e, defaultOutcome);
     st.step();
     id = db_->lastInsertRowid();
   });
@@ -743,9 +755,9 @@ void Store::finishImport(const ImportLogEntry &e) {
     auto st = db_->prepare(
         "UPDATE import_log SET file = ?1, sha256 = ?2, kind = ?3, profile = ?4, mode = ?5, "
         "rows_read = ?6, added = ?7, updated = ?8, unchanged = ?9, rejected = ?10, "
-        "started_at = ?11, finished_at = ?12 WHERE id = ?13");
-    bindLogEntry(st, e);
-    st.bind(13, e.id);
+        "started_at = ?11, finished_at = ?12, outcome = ?13 WHERE id = ?14");
+    bindLogEntry(st, e, "written");
+    st.bind(14, e.id);
     st.step();
     if (db_->changes() != 1)
       throw StoreError(fmt::format("{}: the import log has no entry {}", path_.string(), e.id));
@@ -755,14 +767,14 @@ void Store::finishImport(const ImportLogEntry &e) {
 std::int64_t Store::logFailedImport(const ImportLogEntry &e) {
   if (db_->inTransaction())
     throw std::logic_error("Store::logFailedImport runs in its own transaction; roll back first");
-  return beginImport(e);
+  return insertLogEntry(e, "failed");
 }
 
 std::vector<ImportLogEntry> Store::importLog() const {
   std::vector<ImportLogEntry> out;
-  auto st =
-      db_->prepare("SELECT id, file, sha256, kind, profile, mode, rows_read, added, updated, "
-                   "unchanged, rejected, started_at, finished_at FROM import_log ORDER BY id");
+  auto st = db_->prepare(
+      "SELECT id, file, sha256, kind, profile, mode, rows_read, added, updated, "
+      "unchanged, rejected, started_at, finished_at, outcome FROM import_log ORDER BY id");
   while (st.step()) {
     ImportLogEntry e;
     e.id = st.columnInt64(0);
@@ -778,6 +790,7 @@ std::vector<ImportLogEntry> Store::importLog() const {
     e.rejected = st.columnInt64(10);
     e.startedAt = st.columnText(11);
     e.finishedAt = st.columnText(12);
+    e.outcome = st.columnText(13);
     out.push_back(std::move(e));
   }
   return out;

@@ -37,6 +37,9 @@ struct ImportLogEntry {
   std::int64_t rejected = 0;
   std::string startedAt;  ///< UTC, ISO 8601 "YYYY-MM-DDTHH:MM:SSZ"
   std::string finishedAt; ///< UTC
+  /// "written" (committed), "failed" (nothing written) or "cancelled". Empty when logging means
+  /// the default: "written" for beginImport/finishImport, "failed" for logFailedImport.
+  std::string outcome;
 };
 
 /// Outcome of writing one reservation.
@@ -59,7 +62,7 @@ struct StoreSummary {
 /// Every write runs inside a transaction; a batch of writes shares one via Transaction.
 class Store {
 public:
-  static constexpr int kSchemaVersion = 2;
+  static constexpr int kSchemaVersion = 3;
 
   /// Creates a new store file; throws StoreError if the file exists.
   static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
@@ -132,6 +135,7 @@ public:
 
 private:
   Store(std::filesystem::path path, std::unique_ptr<SqliteDb> db);
+  std::int64_t insertLogEntry(const ImportLogEntry &e, std::string_view defaultOutcome);
   std::filesystem::path path_;
   std::unique_ptr<SqliteDb> db_;
   struct Statements;

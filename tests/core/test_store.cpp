@@ -20,7 +20,7 @@ Date d(int y, unsigned m, unsigned day) { return Date::fromYmd(y, m, day); }
 
 cb::Property sampleProperty() {
   cb::Property p;
-  p.name = "Hotel Larkspur";
+  p.name = "Gullwing Rest";
   p.currency = "CHF";
   p.capacity = 120;
   p.capacityChanges = {{d(2025, 1, 10), 100, "east wing renovation"}, {d(2025, 3, 1), 120, ""}};
@@ -177,7 +177,7 @@ TEST_F(StoreTest, EmptyCodesAreStoredAsNull) {
 TEST_F(StoreTest, SetPropertyReplacesCapacityChangesAndSettings) {
   auto store = Store::create(path, sampleProperty());
   cb::Property p = sampleProperty();
-  p.name = "Hotel Larkspur & Annex";
+  p.name = "Gullwing Rest & Annex";
   p.capacity = 150;
   p.capacityChanges = {{d(2026, 2, 1), 140, "lift works"}};
   p.stly = cb::StlyAlignment::Weekday364;
@@ -253,10 +253,12 @@ TEST_F(StoreTest, NewerSchemaIsRefusedAndLeftUntouched) {
   }
   std::string before = cbtest::readFile(path);
   EXPECT_EQ(errorOf([&] { Store::open(path); }),
-            path.string() + " was written by a newer Curvebench (schema 3; this build reads up "
-                            "to 2); update Curvebench to open it");
+            path.string() + " was written by a newer Curvebench (schema " +
+                std::to_string(Store::kSchemaVersion + 1) + "; this build reads up to " +
+                std::to_string(Store::kSchemaVersion) + "); update Curvebench to open it");
   EXPECT_EQ(cbtest::readFile(path), before);
-  EXPECT_FALSE(fs::exists(path.string() + ".v3.bak"));
+  EXPECT_FALSE(
+      fs::exists(path.string() + ".v" + std::to_string(Store::kSchemaVersion + 1) + ".bak"));
 }
 
 TEST_F(StoreTest, OlderSchemaIsBackedUpThenMigrated) {
@@ -270,7 +272,12 @@ TEST_F(StoreTest, OlderSchemaIsBackedUpThenMigrated) {
     db.exec("INSERT INTO segments (code) VALUES ('CORP');"
             "INSERT INTO reservations (id, status, booked_on, arrival, departure, rooms, segment, "
             "rate) VALUES ('OLD1', 'booked', '2024-01-02', '2024-02-01', '2024-02-03', 1, 'CORP', "
-            "99.5)");
+            "99.5);"
+            // Two log rows from before the outcome column: one wrote rows, one wrote none.
+            "INSERT INTO import_log (file, sha256, kind, profile, mode, rows_read, added, updated, "
+            "unchanged, rejected, started_at, finished_at) VALUES "
+            "('ok.csv', '', 'reservations', 'native', 'strict', 1, 1, 0, 0, 0, '', ''),"
+            "('bad.csv', '', 'reservations', 'native', 'strict', 3, 0, 0, 0, 3, '', '')");
   }
   const std::string original = cbtest::readFile(path);
   ASSERT_FALSE(original.empty());
@@ -278,7 +285,12 @@ TEST_F(StoreTest, OlderSchemaIsBackedUpThenMigrated) {
   ASSERT_FALSE(fs::exists(backup));
 
   auto store = Store::open(path);
-  EXPECT_EQ(store->schemaVersion(), 2);
+  EXPECT_EQ(store->schemaVersion(), Store::kSchemaVersion);
+  // Migration 3 infers the outcome of older log rows from their counts.
+  auto migratedLog = store->importLog();
+  ASSERT_EQ(migratedLog.size(), 2U);
+  EXPECT_EQ(migratedLog[0].outcome, "written");
+  EXPECT_EQ(migratedLog[1].outcome, "failed");
   ASSERT_TRUE(fs::exists(backup));
   EXPECT_EQ(cbtest::readFile(backup), original); // byte for byte
   EXPECT_TRUE(sameProperty(store->property(), sampleProperty()));
@@ -530,7 +542,9 @@ TEST_F(StoreTest, ImportLogLifecycle) {
   EXPECT_EQ(log[0].unchanged, 1);
   EXPECT_EQ(log[0].rejected, 1);
   EXPECT_EQ(log[0].mode, "lenient");
+  EXPECT_EQ(log[0].outcome, "written");
   EXPECT_EQ(log[1].id, failedId);
+  EXPECT_EQ(log[1].outcome, "failed");
   EXPECT_EQ(log[1].file, "b.csv");
   EXPECT_EQ(log[1].mode, "strict");
   EXPECT_EQ(log[1].added, 0);
