@@ -43,13 +43,21 @@ int runImport(const std::string &storePath, const std::string &file, const std::
   for (const auto &f : rep.findings)
     fmt::print(stderr, "{}\n", f.toString());
   const auto &l = rep.log;
+  std::string verdict = "written";
+  if (rep.cancelled)
+    verdict = "cancelled, nothing written";
+  else if (!rep.written && !lenient && l.rejected > 0 && !rep.ioOrUsageError)
+    verdict = "nothing written (strict: fix the rows above, or use --lenient to write the valid "
+              "rows)";
+  else if (!rep.written)
+    verdict = "nothing written";
   fmt::print("{}: read {} rows, added {}, updated {}, unchanged {}, rejected {} — {}\n", file,
              cb::formatCount(l.rowsRead), cb::formatCount(l.added), cb::formatCount(l.updated),
-             cb::formatCount(l.unchanged), cb::formatCount(l.rejected),
-             rep.written ? "written"
-                         : "nothing written (strict: fix the rows above or use --lenient)");
+             cb::formatCount(l.unchanged), cb::formatCount(l.rejected), verdict);
   if (rep.written && !rejects.empty() && l.rejected > 0)
     fmt::print("rejected rows copied to {}\n", rejects);
+  if (rep.ioOrUsageError)
+    return kUsageOrIo;
   return cb::hasErrors(rep.findings) ? kFindings : kOk;
 }
 
@@ -100,9 +108,11 @@ int main(int argc, char **argv) {
       "--profile", profile,
       "Mapping profile: a shipped name (native, hotel-bookings-open-data) or a JSON path");
   auto *strictFlag = imp->add_flag("--strict", strict, "Any rejected row: write nothing (default)");
-  imp->add_flag("--lenient", lenient, "Write the valid rows; report the rejects")
-      ->excludes(strictFlag);
-  imp->add_option("--rejects", rejects, "With --lenient: copy rejected rows to this CSV");
+  auto *lenientFlag =
+      imp->add_flag("--lenient", lenient, "Write the valid rows; report the rejects");
+  lenientFlag->excludes(strictFlag);
+  imp->add_option("--rejects", rejects, "With --lenient: copy rejected rows to this CSV")
+      ->needs(lenientFlag);
 
   auto *info = app.add_subcommand("info", "Property, counts, date ranges and the import log");
   info->add_option("STORE", store, "Store file")->required()->check(CLI::ExistingFile);

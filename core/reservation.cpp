@@ -70,4 +70,11 @@ int Property::capacityOn(Date s) const {
   return cap;
 }
 
+Date Property::stlyNight(Date s) const {
+  if (stly == StlyAlignment::Weekday364)
+    return s - 364;
+  unsigned day = (s.month() == 2 && s.day() == 29) ? 28 : s.day();
+  return Date::fromYmd(s.year() - 1, s.month(), day);
+}
+
 } // namespace cb

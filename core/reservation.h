@@ -90,6 +90,9 @@ struct Property {
   double selloutMargin = 0.02; ///< a night within this share of capacity counts as sold out
   /// Rooms available on night s: the latest change dated on or before s, else `capacity`.
   int capacityOn(Date s) const;
+  /// The night last year that night s compares with (brief section 4, STLY): s − 364 days
+  /// (same weekday) by default, or the same calendar date (29 February → 28 February).
+  Date stlyNight(Date s) const;
 };
 
 enum class BlockStatus { Tentative, Definite };

@@ -56,13 +56,17 @@ std::string formatStoreInfo(Store &store) {
   out += "\nImport log\n";
   if (log.empty())
     out += "  (no imports yet)\n";
-  for (const auto &e : log)
-    out +=
-        fmt::format("  #{} {} {} [{}, {}] read {} added {} updated {} unchanged {} rejected {} "
-                    "sha256 {}\n",
-                    e.id, e.finishedAt.empty() ? e.startedAt : e.finishedAt, e.file, e.profile,
-                    e.mode, formatCount(e.rowsRead), formatCount(e.added), formatCount(e.updated),
-                    formatCount(e.unchanged), formatCount(e.rejected), e.sha256.substr(0, 12));
+  for (const auto &e : log) {
+    std::string outcome = e.outcome == "written"     ? "written"
+                          : e.outcome == "cancelled" ? "CANCELLED (nothing written)"
+                                                     : "FAILED (nothing written)";
+    out += fmt::format("  #{} {} {} {} [{}, {}] read {} added {} updated {} unchanged {} "
+                       "rejected {} sha256 {}\n",
+                       e.id, e.finishedAt.empty() ? e.startedAt : e.finishedAt, outcome, e.file,
+                       e.profile, e.mode, formatCount(e.rowsRead), formatCount(e.added),
+                       formatCount(e.updated), formatCount(e.unchanged), formatCount(e.rejected),
+                       e.sha256.substr(0, 12));
+  }
   return out;
 }
 

@@ -27,11 +27,7 @@ NightCurves WorkbenchSession::curves(cb::Date night, int maxLead,
                                      const std::string &segment) const {
   NightCurves out;
   out.night = night;
-  out.lastYearNight =
-      property_.stly == cb::StlyAlignment::Weekday364
-          ? night - 364
-          : cb::Date::fromYmd(night.year() - 1, night.month(),
-                              night.month() == 2 && night.day() == 29 ? 28 : night.day());
+  out.lastYearNight = property_.stlyNight(night);
   out.capacity = property_.capacityOn(night);
   int known = night - readingDate_; // leads below this are after the reading date: unknown
   if (known > 0)
