@@ -7,8 +7,16 @@ namespace cb {
 ImportReport buildSampleStore(const std::filesystem::path &storePath,
                               const std::filesystem::path &filesDir,
                               const SimulatorConfig &config) {
+  if (std::filesystem::exists(storePath))
+    throw StoreError(fmt::format("{} already exists", storePath.string()));
+  // Built under a temporary name and renamed at the end, so a build that fails or is killed
+  // never leaves a half-filled store where the workbench would take it for the sample.
+  std::filesystem::path partial = storePath;
+  partial += ".partial";
+  for (const char *suffix : {"", "-wal", "-shm"})
+    std::filesystem::remove(partial.string() + suffix);
   SampleProperty sample = simulateProperty(config);
-  auto store = Store::create(storePath, sample.property);
+  auto store = Store::create(partial, sample.property);
   {
     Store::Transaction tx(*store);
     for (const auto &r : sample.roomTypes)
@@ -32,6 +40,8 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
         report.findings.empty() ? "unknown error" : report.findings.front().toString();
     throw StoreError(fmt::format("the sample property did not import: {}", first));
   }
+  store.reset(); // closes the connection, folding the write-ahead log into the file
+  std::filesystem::rename(partial, storePath);
   return report;
 }
 

@@ -23,6 +23,9 @@ TEST(SampleStore, HoldsEverythingTheSimulatorMade) {
   ASSERT_EQ(log.size(), 1u);
   EXPECT_EQ(log[0].added, s.reservations);
   EXPECT_TRUE(std::filesystem::exists(dir / "files" / "reservations.csv"));
+  // Built under a temporary name: nothing of it is left beside the store.
+  EXPECT_FALSE(std::filesystem::exists(dir / "s.curvebench.partial"));
+  EXPECT_FALSE(std::filesystem::exists(dir / "s.curvebench.partial-wal"));
   // And it refuses to overwrite an existing store.
   EXPECT_THROW(cb::buildSampleStore(dir / "s.curvebench", dir / "files2"), cb::StoreError);
 }
