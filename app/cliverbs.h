@@ -1,0 +1,26 @@
+// The verbs of the `curvebench` command line. Each group lives in its own file and registers
+// its subcommands here; main() parses and runs the one chosen. Verbs only parse and print:
+// the work is in core.
+#pragma once
+
+#include <CLI/CLI.hpp>
+
+#include <functional>
+#include <vector>
+
+namespace cbcli {
+
+// Exit codes (README): 0 ok, 1 data findings (rejected rows), 2 usage or I/O error.
+constexpr int kOk = 0;
+constexpr int kFindings = 1;
+constexpr int kUsageOrIo = 2;
+
+struct Verb {
+  CLI::App *command;
+  std::function<int()> run; ///< may throw; main() turns exceptions into exit code 2
+};
+using VerbList = std::vector<Verb>;
+
+void addStoreVerbs(CLI::App &app, VerbList &verbs); // init, import, info, sample (cli_store.cpp)
+
+} // namespace cbcli
