@@ -56,7 +56,7 @@ bool CsvReader::checkUtf8(unsigned char b) {
     if (b < 0x80)
       return true;
     utf8Line_ = line_;
-    utf8Col_ = col_;
+    utf8FieldByte_ = fieldByte_;
     utf8Lead_ = b;
     utf8Lo_ = 0x80;
     utf8Hi_ = 0xBF;
@@ -90,12 +90,14 @@ bool CsvReader::checkUtf8(unsigned char b) {
   return true;
 }
 
+// The finding's column is the field number, like every other finding; the text places the
+// byte within that field in bytes, so it cannot be mistaken for a second column number.
 void CsvReader::badUtf8() {
   fail(utf8Line_, currentField_,
-       fmt::format("the file is not valid UTF-8: byte 0x{:02X} at line {}, character {} does not "
-                   "begin a valid UTF-8 character; save the file as UTF-8 (in a spreadsheet: "
-                   "\"CSV UTF-8\")",
-                   utf8Lead_, utf8Line_, utf8Col_));
+       fmt::format("the file is not valid UTF-8: byte {} of field {} (0x{:02X}) does not begin a "
+                   "valid UTF-8 character; save the file as UTF-8 (in a spreadsheet: \"CSV "
+                   "UTF-8\")",
+                   utf8FieldByte_, currentField_, utf8Lead_));
 }
 
 int CsvReader::get() {
@@ -110,6 +112,7 @@ int CsvReader::get() {
   }
   auto b = static_cast<unsigned char>(buf_[pos_++]);
   ++consumed_;
+  ++fieldByte_;
   if (!checkUtf8(b))
     return kFailed;
   if ((b & 0xC0) != 0x80)
@@ -147,6 +150,7 @@ bool CsvReader::next(CsvRecord &out) {
       CsvField &f = out.fields.emplace_back();
       f.line = line_;
       f.column = col_;
+      fieldByte_ = 0;
     };
     auto problem = [&](std::string msg) {
       if (out.problem.empty()) {
@@ -164,9 +168,9 @@ bool CsvReader::next(CsvRecord &out) {
         if (st == State::Quoted) {
           const CsvField &f = out.fields.back();
           fail(f.line, currentField_,
-               fmt::format("the quoted field that starts at line {}, character {} is never "
-                           "closed: the file ends inside quotes",
-                           f.line, f.column));
+               fmt::format("field {} opens a quote on line {} that is never closed: the file "
+                           "ends inside quotes",
+                           currentField_, f.line));
           return false;
         }
         if (!any) {

@@ -99,9 +99,10 @@ private:
   int utf8Need_ = 0;
   unsigned char utf8Lo_ = 0x80, utf8Hi_ = 0xBF;
   std::int64_t utf8Line_ = 0; ///< where the current multi-byte sequence started
-  int utf8Col_ = 0;
   unsigned char utf8Lead_ = 0;
-  int currentField_ = 1; ///< 1-based field number being read, for error columns
+  int currentField_ = 1;  ///< 1-based field number being read, for error columns
+  int fieldByte_ = 0;     ///< bytes of the current field read so far (its opening quote too)
+  int utf8FieldByte_ = 0; ///< fieldByte_ of the current multi-byte sequence's first byte
   std::size_t headerSize_ = 0;
   std::int64_t records_ = 0;
   std::optional<Finding> fatal_;

@@ -13,6 +13,7 @@
 #include <functional>
 #include <set>
 #include <sstream>
+#include <utility>
 
 namespace cb {
 namespace {
@@ -130,14 +131,31 @@ std::optional<double> parseDecimal(std::string_view s) {
   return v;
 }
 
+/// Line and column (characters, 1-based, as in CSV findings) of a parse_error's byte position,
+/// which is the 1-based index of the last character read, or one past the end of the input.
+std::pair<std::int64_t, int> textPosition(std::string_view text, std::size_t byte) {
+  const std::size_t at = std::min(byte == 0 ? 0 : byte - 1, text.size());
+  std::int64_t line = 1;
+  int column = 1;
+  for (std::size_t i = 0; i < at; ++i) {
+    if (text[i] == '\n') {
+      ++line;
+      column = 1;
+    } else if ((static_cast<unsigned char>(text[i]) & 0xC0) != 0x80) {
+      ++column;
+    }
+  }
+  return {line, column};
+}
+
 /// Reads profile JSON into specs, collecting findings on the profile file.
 class ProfileParser {
 public:
   ProfileParser(std::string label, Findings &findings)
       : label_(std::move(label)), findings_(findings) {}
 
-  void error(std::string message) {
-    findings_.push_back(Finding{Severity::Error, label_, 0, 0, std::move(message)});
+  void error(std::string message, std::int64_t line = 0, int column = 0) {
+    findings_.push_back(Finding{Severity::Error, label_, line, column, std::move(message)});
     ok_ = false;
   }
   bool ok() const { return ok_; }
@@ -367,10 +385,16 @@ std::optional<MappingProfile> MappingProfile::parse(std::string_view json, const
   try {
     j = Json::parse(json);
   } catch (const Json::parse_error &e) {
+    // what() is "[json.exception.parse_error.101] parse error at line 2, column 13: syntax
+    // error …"; the position goes into the finding's prefix, so keep only the explanation.
     std::string what = e.what();
-    auto cut = what.find("] ");
-    p.error("the profile is not valid JSON: " +
-            (cut == std::string::npos ? what : what.substr(cut + 2)));
+    if (auto cut = what.find("] "); cut != std::string::npos)
+      what.erase(0, cut + 2);
+    if (what.rfind("parse error", 0) == 0)
+      if (auto cut = what.find(": "); cut != std::string::npos)
+        what.erase(0, cut + 2);
+    auto [line, column] = textPosition(json, e.byte);
+    p.error("the profile is not valid JSON: " + what, line, column);
     return std::nullopt;
   }
   if (!j.is_object()) {
@@ -459,6 +483,7 @@ bool MappingProfile::bind(const CsvRecord &header, const std::string &csvFile, F
   for (int i = 0; i < static_cast<int>(header_.size()); ++i)
     where[header_[static_cast<std::size_t>(i)]].push_back(i);
   std::set<int> used;
+  std::set<std::string> repeated; // reported once each, and never also as unused
   bool ok = true;
   auto at = [&](Severity sev, int column, std::string message) {
     findings.push_back(Finding{sev, csvFile, header.line, column, std::move(message)});
@@ -479,7 +504,7 @@ bool MappingProfile::bind(const CsvRecord &header, const std::string &csvFile, F
                        label_, fieldName(field), column));
       return -1;
     }
-    if (it->second.size() > 1) {
+    if (it->second.size() > 1 && repeated.insert(column).second) {
       ok = false;
       at(Severity::Error, it->second[1] + 1,
          fmt::format("column \"{}\" appears more than once in the header (columns {} and {}); "
@@ -510,7 +535,7 @@ bool MappingProfile::bind(const CsvRecord &header, const std::string &csvFile, F
   }
   if (warnUnused_)
     for (int i = 0; i < static_cast<int>(header_.size()); ++i)
-      if (!used.count(i))
+      if (!used.count(i) && !repeated.count(header_[static_cast<std::size_t>(i)]))
         at(Severity::Warning, i + 1,
            fmt::format("column \"{}\" is not a native column; it is ignored",
                        header_[static_cast<std::size_t>(i)]));
@@ -716,6 +741,17 @@ std::string MappingProfile::sourceName(std::string_view nativeField) const {
   int c = sourceColumn(nativeField);
   if (c > 0 && static_cast<std::size_t>(c) <= header_.size())
     return header_[static_cast<std::size_t>(c - 1)];
+  return std::string(nativeField);
+}
+
+std::string MappingProfile::columnName(std::string_view nativeField) const {
+  int f = fieldIndex(nativeField);
+  if (f >= 0) {
+    const Spec &s = specs_[static_cast<std::size_t>(f)];
+    if (s.kind == Spec::Kind::Column && s.index >= 0 &&
+        static_cast<std::size_t>(s.index) < header_.size())
+      return header_[static_cast<std::size_t>(s.index)];
+  }
   return std::string(nativeField);
 }
 

@@ -62,6 +62,10 @@ public:
   int sourceColumn(std::string_view nativeField) const;
   /// The header name of that column, or the native field name when there is none.
   std::string sourceName(std::string_view nativeField) const;
+  /// What to call a native field in a message about a row: the header name when the field is
+  /// read from one column as it stands, else the native field name (a constant, a line number
+  /// or a date derived from several columns is not any one column's value).
+  std::string columnName(std::string_view nativeField) const;
 
   /// How one native field is sourced (parsed from the profile, then bound to the header).
   struct FieldSpec {

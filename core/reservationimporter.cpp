@@ -11,8 +11,9 @@
 #include <algorithm>
 #include <cerrno>
 #include <chrono>
+#include <cmath>
+#include <cstdio>
 #include <cstring>
-#include <fstream>
 #include <streambuf>
 #include <unordered_map>
 
@@ -20,11 +21,27 @@ namespace cb {
 namespace {
 
 /// A file whose bytes are hashed as the CSV reader pulls them, so a large extract is read once.
+/// Built on std::FILE rather than std::ifstream: the stream cannot tell a read error from the
+/// end of the file, and errno must be captured right after fopen() for an honest message.
 class HashingFileBuf : public std::streambuf {
 public:
-  explicit HashingFileBuf(const std::filesystem::path &path)
-      : file_(path, std::ios::binary), buf_(64 * 1024) {}
-  bool isOpen() const { return file_.is_open(); }
+  explicit HashingFileBuf(const std::filesystem::path &path) : buf_(64 * 1024) {
+    errno = 0;
+    file_ = std::fopen(path.c_str(), "rb");
+    if (!file_)
+      error_ = errno;
+  }
+  ~HashingFileBuf() override {
+    if (file_)
+      std::fclose(file_);
+  }
+  HashingFileBuf(const HashingFileBuf &) = delete;
+  HashingFileBuf &operator=(const HashingFileBuf &) = delete;
+
+  bool isOpen() const { return file_ != nullptr; }
+  /// errno of the failed open or of the first failed read; 0 when all went well.
+  int error() const { return error_; }
+  bool readFailed() const { return file_ && error_ != 0; }
   /// Hashes whatever the reader did not consume (it stops early on a fatal problem).
   std::string finishDigest() {
     while (underflow() != traits_type::eof())
@@ -36,17 +53,23 @@ protected:
   int_type underflow() override {
     if (gptr() < egptr())
       return traits_type::to_int_type(*gptr());
-    file_.read(buf_.data(), static_cast<std::streamsize>(buf_.size()));
-    auto n = static_cast<std::size_t>(file_.gcount());
-    if (n == 0)
+    if (!file_ || error_ != 0)
       return traits_type::eof();
+    errno = 0;
+    std::size_t n = std::fread(buf_.data(), 1, buf_.size(), file_);
+    if (n == 0) {
+      if (std::ferror(file_))
+        error_ = errno != 0 ? errno : EIO;
+      return traits_type::eof();
+    }
     hash_.update(std::string_view(buf_.data(), n));
     setg(buf_.data(), buf_.data(), buf_.data() + n);
     return traits_type::to_int_type(*gptr());
   }
 
 private:
-  std::ifstream file_;
+  std::FILE *file_ = nullptr;
+  int error_ = 0;
   std::vector<char> buf_;
   Sha256 hash_;
 };
@@ -62,39 +85,122 @@ constexpr int kMaxRowFindings = 1000;
 constexpr std::int64_t kProgressEvery = 4096;
 
 /// The rejected rows of a lenient import: the original fields plus a "problem" column.
+/// std::FILE for the same reason as HashingFileBuf: errno right after open, and a close that
+/// reports a failed final flush (a full disk shows up only there).
 class RejectsWriter {
 public:
+  RejectsWriter() = default;
+  RejectsWriter(const RejectsWriter &) = delete;
+  RejectsWriter &operator=(const RejectsWriter &) = delete;
+  ~RejectsWriter() {
+    if (out_)
+      std::fclose(out_);
+  }
+
+  /// False with error() set when the file cannot be created.
   bool open(const std::filesystem::path &path, const CsvRecord &header) {
     path_ = path;
-    out_.open(path, std::ios::binary | std::ios::trunc);
-    if (!out_)
+    errno = 0;
+    out_ = std::fopen(path.c_str(), "wb");
+    if (!out_) {
+      error_ = errno;
       return false;
+    }
     write(header, "problem");
     return true;
   }
-  bool isOpen() const { return out_.is_open(); }
+  bool isOpen() const { return out_ != nullptr; }
+  int error() const { return error_; }
   void write(const CsvRecord &rec, std::string_view problem) {
+    line_.clear();
     for (const auto &f : rec.fields)
-      out_ << quoteCsvField(f.text) << ',';
-    out_ << quoteCsvField(problem) << '\n';
+      line_ += quoteCsvField(f.text) + ',';
+    line_ += quoteCsvField(problem) + '\n';
+    errno = 0;
+    if (std::fwrite(line_.data(), 1, line_.size(), out_) != line_.size() && error_ == 0)
+      error_ = errno != 0 ? errno : EIO;
   }
+  /// False with error() set when any write or the final flush failed.
   bool close() {
-    out_.close();
-    return !out_.fail();
+    errno = 0;
+    const bool closed = std::fclose(out_) == 0;
+    out_ = nullptr;
+    if (!closed && error_ == 0)
+      error_ = errno != 0 ? errno : EIO;
+    return error_ == 0;
   }
+  /// Closes and removes a half-written rejects file; never removes anything but a regular file
+  /// (the path may name a device such as /dev/stdout).
   void discard() {
-    out_.close();
+    if (out_) {
+      std::fclose(out_);
+      out_ = nullptr;
+    }
     std::error_code ec;
-    std::filesystem::remove(path_, ec);
+    if (std::filesystem::is_regular_file(path_, ec))
+      std::filesystem::remove(path_, ec);
   }
 
 private:
   std::filesystem::path path_;
-  std::ofstream out_;
+  std::FILE *out_ = nullptr;
+  int error_ = 0;
+  std::string line_;
 };
+
+/// The physical line of a finding at 1-based field `column`: a field after an embedded newline
+/// sits on a later line than its record starts. A column past the last field (a short row) is
+/// where the row ended; column 0 (the whole row) is where it began.
+std::int64_t lineOfColumn(const CsvRecord &rec, int column) {
+  if (column <= 0 || rec.fields.empty())
+    return rec.line;
+  const auto i = std::min(static_cast<std::size_t>(column), rec.fields.size()) - 1;
+  return rec.fields[i].line;
+}
+
+/// validateReservation() decides what is wrong and which native field is at fault; the phrase
+/// is made here so that it names the column as the user's file calls it, and names it once
+/// ("booked_on 2026-05-02 is after arrival 2026-05-01", not "booked_on: booked on …").
+std::string validationMessage(const Reservation &r, const std::string &field,
+                              const std::string &fallback, const MappingProfile &profile) {
+  auto name = [&](std::string_view f) { return profile.columnName(f); };
+  if (field == "departure")
+    return fmt::format("{} {} is before {} {}", name("departure"), r.departure.toIso(),
+                       name("arrival"), r.arrival.toIso());
+  if (field == "booked_on")
+    return fmt::format("{} {} is after {} {}", name("booked_on"), r.bookedOn.toIso(),
+                       name("arrival"), r.arrival.toIso());
+  if (field == "cancelled_on") {
+    if (r.status == ReservationStatus::Cancelled && !r.cancelledOn)
+      return fmt::format("{} is cancelled but {} is empty", name("status"), name("cancelled_on"));
+    if (r.status != ReservationStatus::Cancelled && r.cancelledOn)
+      return fmt::format("{} {} is set but {} is {}", name("cancelled_on"), r.cancelledOn->toIso(),
+                         name("status"), statusName(r.status));
+    if (r.cancelledOn)
+      return fmt::format("{} {} is before {} {}", name("cancelled_on"), r.cancelledOn->toIso(),
+                         name("booked_on"), r.bookedOn.toIso());
+  }
+  if (field == "rooms")
+    return r.rooms < 0 ? fmt::format("{} is negative ({})", name("rooms"), r.rooms)
+                       : fmt::format("{} is {}; a reservation holds at least one room",
+                                     name("rooms"), r.rooms);
+  if (field == "rate")
+    return std::isfinite(r.rate) ? fmt::format("{} is negative ({})", name("rate"), r.rate)
+                                 : fmt::format("{} is not a finite number", name("rate"));
+  return fallback;
+}
 
 } // namespace
 
+// What is written, by kind of problem:
+// - Row-level problems (a bad value, a wrong field count, a duplicate id, a truncated last row):
+//   strict writes nothing; lenient writes the valid rows and reports (and copies) the rejects.
+// - File-level problems write nothing even with --lenient, because then no row can be trusted
+//   to have been read as the user meant: invalid UTF-8, a semicolon- or tab-separated file, an
+//   unterminated quote, an oversized record, a bad header (missing or repeated column), an empty
+//   file or one with a header only.
+// - I/O and usage problems (the file, the profile or the rejects file cannot be opened, read,
+//   parsed or written) write nothing and set ImportReport::ioOrUsageError.
 // Counts: a strict import that fails writes nothing, so its log row keeps rows read and rejected
 // but shows 0 added / updated / unchanged. Progress reports (bytes read, file size) so a bar can
 // move smoothly; it is called every kProgressEvery rows and once at the end.
@@ -114,6 +220,10 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   auto fileError = [&](std::int64_t line, int column, std::string message) {
     findings.push_back(Finding{Severity::Error, label, line, column, std::move(message)});
   };
+  auto ioError = [&](std::string message) {
+    fileError(0, 0, std::move(message));
+    rep.ioOrUsageError = true;
+  };
   std::optional<Store::Transaction> tx;
   RejectsWriter rejects;
   HashingFileBuf input(file);
@@ -130,12 +240,25 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   };
 
   auto profile = MappingProfile::load(log.profile, findings);
-  if (!profile)
-    return failed();
-  if (!input.isOpen()) {
-    fileError(0, 0, fmt::format("cannot open the file: {}", std::strerror(errno)));
+  if (!profile) {
+    rep.ioOrUsageError = true; // an unknown or broken profile is a usage error, not data
     return failed();
   }
+  std::error_code statusError;
+  if (std::filesystem::is_directory(file, statusError)) {
+    ioError("cannot open the file: it is a folder");
+    return failed();
+  }
+  if (!input.isOpen()) {
+    ioError(fmt::format("cannot open the file: {}", std::strerror(input.error())));
+    return failed();
+  }
+  auto readFailed = [&] {
+    if (!input.readFailed())
+      return false;
+    ioError(fmt::format("cannot read the file: {}", std::strerror(input.error())));
+    return true;
+  };
   std::error_code sizeError;
   const auto fileSize = static_cast<std::int64_t>(std::filesystem::file_size(file, sizeError));
   std::istream in(&input);
@@ -145,6 +268,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
 
   CsvRecord header;
   if (!reader.next(header)) {
+    if (readFailed())
+      return failed();
     if (reader.fatal())
       findings.push_back(*reader.fatal());
     return failed();
@@ -152,9 +277,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   if (!profile->bind(header, label, findings))
     return failed();
   if (lenient && options.rejectsFile && !rejects.open(*options.rejectsFile, header)) {
-    fileError(0, 0,
-              fmt::format("cannot write the rejects file {}: {}", options.rejectsFile->string(),
-                          std::strerror(errno)));
+    ioError(fmt::format("cannot write the rejects file {}: {}", options.rejectsFile->string(),
+                        std::strerror(rejects.error())));
     return failed();
   }
 
@@ -182,15 +306,12 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
       if (problems.empty()) {
         std::string field;
         std::string message = validateReservation(r, &field);
-        if (!message.empty()) {
-          std::string source = profile->sourceName(field);
-          if (message.find(source) == std::string::npos)
-            message = source + ": " + message;
-          problems.push_back(RowProblem{profile->sourceColumn(field), message});
-        }
+        if (!message.empty())
+          problems.push_back(RowProblem{profile->sourceColumn(field),
+                                        validationMessage(r, field, message, *profile)});
       }
       if (!r.id.empty()) {
-        auto [it, inserted] = firstLine.emplace(r.id, rec.line);
+        auto [it, inserted] = firstLine.emplace(r.id, lineOfColumn(rec, idColumn));
         if (!inserted)
           problems.push_back(RowProblem{
               idColumn, fmt::format("{} \"{}\" was already used on line {}; ids must be unique "
@@ -214,8 +335,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
       for (auto &p : problems) {
         joinedProblems += (joinedProblems.empty() ? "" : "; ") + p.message;
         if (listed++ < kMaxRowFindings)
-          findings.push_back(
-              Finding{Severity::Error, label, rec.line, p.column, std::move(p.message)});
+          findings.push_back(Finding{Severity::Error, label, lineOfColumn(rec, p.column), p.column,
+                                     std::move(p.message)});
         else
           ++unlisted;
       }
@@ -233,6 +354,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
     }
   }
 
+  if (readFailed())
+    return failed();
   if (unlisted > 0)
     findings.push_back(Finding{Severity::Error, label, 0, 0,
                                fmt::format("{} more problems are not listed here", unlisted)});
@@ -251,10 +374,12 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
                             log.rejected, log.rowsRead)});
     return failed();
   }
-  if (rejects.isOpen() && !rejects.close())
-    fileError(
-        0, 0,
-        fmt::format("could not finish writing the rejects file {}", options.rejectsFile->string()));
+  if (rejects.isOpen() && !rejects.close()) {
+    // The rows are not written either: the user would lose track of the rejects otherwise.
+    ioError(fmt::format("cannot write the rejects file {}: {}", options.rejectsFile->string(),
+                        std::strerror(rejects.error())));
+    return failed();
+  }
   if (options.progress)
     options.progress(options.progressContext, fileSize, fileSize);
   log.sha256 = input.finishDigest();

@@ -123,10 +123,32 @@ TEST(CsvReader, NonUtf8ByteIsFatalWithLineAndField) {
   ASSERT_TRUE(p.fatal);
   EXPECT_EQ(p.fatal->line, 3);
   EXPECT_EQ(p.fatal->column, 2);
-  EXPECT_NE(p.fatal->message.find("byte 0xE9 at line 3, character 6"), std::string::npos)
-      << p.fatal->message;
-  EXPECT_NE(p.fatal->message.find("save the file as UTF-8"), std::string::npos);
+  // The prefix's column is the field number; the text counts bytes within that field, so no
+  // second "column" appears that could contradict it.
+  EXPECT_EQ(p.fatal->toString(),
+            "t.csv:3:2: the file is not valid UTF-8: byte 4 of field 2 (0xE9) does not begin a "
+            "valid UTF-8 character; save the file as UTF-8 (in a spreadsheet: \"CSV UTF-8\")");
   EXPECT_EQ(p.records.size(), 2u);
+}
+
+TEST(CsvReader, NonUtf8ByteCountsBytesWithinItsField) {
+  // "é" (2 bytes) comes first, so the bad byte is byte 5 of the field though it is the 4th
+  // character; in a quoted field the opening quote is byte 1. Every chunk size agrees.
+  for (std::size_t chunk : {4u, 5u, 7u, 64u}) {
+    auto p = parse("a,b,c\nx,\xC3\xA9"
+                   "ab\xFF,z\n",
+                   chunk);
+    ASSERT_TRUE(p.fatal) << chunk;
+    EXPECT_EQ(p.fatal->column, 2);
+    EXPECT_NE(p.fatal->message.find("byte 5 of field 2 (0xFF)"), std::string::npos)
+        << p.fatal->message;
+  }
+  auto q = parse("a,b,c\nx,y,\"long\nnote \xC0\"\n");
+  ASSERT_TRUE(q.fatal);
+  EXPECT_EQ(q.fatal->line, 3); // the line of the bad byte, inside a field that began on line 2
+  EXPECT_EQ(q.fatal->column, 3);
+  EXPECT_NE(q.fatal->message.find("byte 12 of field 3 (0xC0)"), std::string::npos)
+      << q.fatal->message;
 }
 
 TEST(CsvReader, RejectsOverlongSurrogateAndCutSequences) {
@@ -144,8 +166,8 @@ TEST(CsvReader, UnterminatedQuoteAtEndOfFile) {
   auto p = parse("id,note\n1,fine\n2,\"never closed\n3,x\n");
   ASSERT_TRUE(p.fatal);
   EXPECT_EQ(p.fatal->toString(),
-            "t.csv:3:2: the quoted field that starts at line 3, character 3 is never closed: the "
-            "file ends inside quotes");
+            "t.csv:3:2: field 2 opens a quote on line 3 that is never closed: the file ends "
+            "inside quotes");
 }
 
 TEST(CsvReader, SemicolonSeparatedFileIsNamed) {

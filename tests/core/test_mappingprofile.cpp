@@ -83,7 +83,9 @@ TEST(MappingProfile, StructuralMistakesAreNamed) {
   EXPECT_TRUE(hasFinding(f, "p.json: fields has no entry for the required field \"rate\""));
   f.clear();
   EXPECT_FALSE(parse("{\"fields\": {\n  \"status\": }", f));
-  EXPECT_TRUE(hasFinding(f, "p.json: the profile is not valid JSON: parse error at line 2"));
+  ASSERT_EQ(f.size(), 1u);
+  EXPECT_EQ(f[0].toString(), "p.json:2:13: the profile is not valid JSON: syntax error while "
+                             "parsing value - unexpected '}'; expected '[', '{', or a literal");
   f.clear();
   EXPECT_FALSE(
       parse(profileWith(kBasicFields + R"(, "channel": {"column": "a", "constant": "b"})"), f));
@@ -108,6 +110,27 @@ TEST(MappingProfile, StructuralMistakesAreNamed) {
   EXPECT_FALSE(parse(profileWith(bad), f));
   EXPECT_TRUE(
       hasFinding(f, "fields.status.values maps \"OK\" to \"confirmed\", which is not a status"));
+}
+
+TEST(MappingProfile, JsonErrorPositionsCountCharactersLikeCsvFindings) {
+  cb::Findings f;
+  // "é" is two bytes: the stray x is character 18 of line 1 though it is byte 19.
+  EXPECT_FALSE(parse("{\"name\": \"Caf\xC3\xA9\", x}", f));
+  ASSERT_EQ(f.size(), 1u);
+  EXPECT_EQ(f[0].line, 1);
+  EXPECT_EQ(f[0].column, 18);
+  f.clear();
+  // the input ends inside the object: one past the last character of line 3
+  EXPECT_FALSE(parse("{\n\"fields\": {\n\"rate\":", f));
+  ASSERT_EQ(f.size(), 1u);
+  EXPECT_EQ(f[0].toString(), "p.json:3:8: the profile is not valid JSON: syntax error while "
+                             "parsing value - unexpected end of input; expected '[', '{', or a "
+                             "literal");
+  f.clear();
+  EXPECT_FALSE(parse("", f));
+  ASSERT_EQ(f.size(), 1u);
+  EXPECT_EQ(f[0].line, 1);
+  EXPECT_EQ(f[0].column, 1);
 }
 
 TEST(MappingProfile, ShippedNameOrPath) {
@@ -225,6 +248,61 @@ TEST(MappingProfile, BindReportsMissingAndRepeatedColumns) {
                             "which is not in the file's header"));
   EXPECT_TRUE(hasFinding(f, "in.csv:1:8: column \"seg\" appears more than once in the header "
                             "(columns 7 and 8)"));
+}
+
+TEST(MappingProfile, RepeatedNativeColumnIsReportedOnceAndOnlyAsRepeated) {
+  cb::Findings f;
+  auto p = MappingProfile::load("native", f);
+  ASSERT_TRUE(p);
+  // The second "segment" is not read, but it is a native column: calling it "not a native
+  // column" as well would send the user looking for a typo that is not there.
+  auto rows = records("reservation_id,status,booked_on,cancelled_on,arrival,departure,rooms,"
+                      "segment,rate,segment,notes\n");
+  EXPECT_FALSE(p->bind(rows[0], "in.csv", f));
+  ASSERT_EQ(f.size(), 2u);
+  EXPECT_EQ(f[0].toString(),
+            "in.csv:1:10: column \"segment\" appears more than once in the header (columns 8 and "
+            "10); rename one so the import knows which to use");
+  EXPECT_EQ(f[1].toString(),
+            "in.csv:1:11: warning: column \"notes\" is not a native column; it is ignored");
+}
+
+TEST(MappingProfile, ColumnReadTwiceIsReportedRepeatedOnce) {
+  cb::Findings f;
+  auto p = parse(profileWith(R"(
+      "reservation_id": {"column": "id"}, "status": {"constant": "booked"},
+      "arrival": {"column": "in"},
+      "departure": {"from_field": "arrival", "plus_days": "n"},
+      "booked_on": {"from_field": "arrival", "minus_days": "n"},
+      "cancelled_on": {"constant": ""}, "rooms": {"constant": 1}, "segment": {"constant": "S"},
+      "rate": {"constant": 0})"),
+                 f);
+  ASSERT_TRUE(p) << f.front().toString();
+  auto rows = records("id,in,n,n\n");
+  EXPECT_FALSE(p->bind(rows[0], "in.csv", f));
+  ASSERT_EQ(f.size(), 1u);
+  EXPECT_EQ(f[0].column, 4);
+}
+
+TEST(MappingProfile, ColumnNameIsTheHeaderOnlyForAPlainColumn) {
+  cb::Findings f;
+  auto p = parse(profileWith(R"(
+      "reservation_id": {"line_number": true}, "status": {"column": "st"},
+      "arrival": {"column": "in"},
+      "departure": {"from_field": "arrival", "plus_days": "n"},
+      "booked_on": {"from_field": "arrival", "minus_days": "lead"},
+      "cancelled_on": {"constant": ""}, "rooms": {"constant": 1}, "segment": {"constant": "S"},
+      "rate": {"column": "price"})"),
+                 f);
+  ASSERT_TRUE(p) << f.front().toString();
+  auto rows = records("st,in,n,lead,price\n");
+  ASSERT_TRUE(p->bind(rows[0], "in.csv", f));
+  EXPECT_EQ(p->columnName("status"), "st");
+  EXPECT_EQ(p->columnName("rate"), "price");
+  EXPECT_EQ(p->columnName("booked_on"), "booked_on"); // derived: lead is not the date itself
+  EXPECT_EQ(p->columnName("reservation_id"), "reservation_id");
+  EXPECT_EQ(p->columnName("rooms"), "rooms");
+  EXPECT_EQ(p->columnName("no_such_field"), "no_such_field");
 }
 
 TEST(MappingProfile, NativeProfileAcceptsAnyOrderAndOptionalColumns) {
