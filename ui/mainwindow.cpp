@@ -125,7 +125,17 @@ void MainWindow::setIdle(const QString &message) {
 }
 
 void MainWindow::openStore(const std::filesystem::path &store) {
-  setBusy(QStringLiteral("Opening %1 …").arg(QString::fromStdString(store.string())));
+  startLoad(store, false,
+            QStringLiteral("Opening %1 …").arg(QString::fromStdString(store.string())));
+}
+
+void MainWindow::buildSampleAndOpen(const std::filesystem::path &store) {
+  startLoad(store, true, QStringLiteral("Building the sample property (first run only) …"));
+}
+
+void MainWindow::startLoad(const std::filesystem::path &store, bool buildSampleFirst,
+                           const QString &what) {
+  setBusy(what);
   auto *watcher = new QFutureWatcher<LoadResult>(this);
   connect(watcher, &QFutureWatcher<LoadResult>::finished, this, [this, watcher] {
     LoadResult r = watcher->result();
@@ -139,24 +149,8 @@ void MainWindow::openStore(const std::filesystem::path &store) {
     // The session was made for this window alone; take it over from the shared holder.
     setSession(std::make_unique<WorkbenchSession>(std::move(*shared)));
   });
-  watcher->setFuture(QtConcurrent::run([store] { return loadSession(store, false); }));
-}
-
-void MainWindow::buildSampleAndOpen(const std::filesystem::path &store) {
-  setBusy(QStringLiteral("Building the sample property (first run only) …"));
-  auto *watcher = new QFutureWatcher<LoadResult>(this);
-  connect(watcher, &QFutureWatcher<LoadResult>::finished, this, [this, watcher] {
-    LoadResult r = watcher->result();
-    watcher->deleteLater();
-    if (auto *msg = std::get_if<QString>(&r)) {
-      setIdle(*msg);
-      emit loadFailed(*msg);
-      return;
-    }
-    auto shared = std::get<std::shared_ptr<WorkbenchSession>>(r);
-    setSession(std::make_unique<WorkbenchSession>(std::move(*shared)));
-  });
-  watcher->setFuture(QtConcurrent::run([store] { return loadSession(store, true); }));
+  watcher->setFuture(QtConcurrent::run(
+      [store, buildSampleFirst] { return loadSession(store, buildSampleFirst); }));
 }
 
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {

@@ -45,6 +45,7 @@ signals:
   void loadFailed(const QString &message);
 
 private:
+  void startLoad(const std::filesystem::path &store, bool buildSampleFirst, const QString &what);
   void setSession(std::unique_ptr<WorkbenchSession> session);
   void refreshChart();
   void setBusy(const QString &what);
