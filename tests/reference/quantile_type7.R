@@ -1,0 +1,18 @@
+# Reference values for tests/core/test_quantile.cpp: R's quantile(type = 7) (Hyndman & Fan 1996,
+# definition 7). Produced with R 4.2.2 (Debian package r-base-core 4.2.2):
+#   Rscript tests/reference/quantile_type7.R
+# Each line: sample name, probability, quantile printed with 17 significant digits.
+samples <- list(
+  four = c(1, 2, 3, 4),
+  unsorted = c(12, 3, 7, 7, 25, 0, 18, 4, 9),
+  single = c(42),
+  pair = c(-5, 5),
+  decimals = c(0.5, 2.25, -1.75, 3.125, 10, 7.5, 7.5),
+  leads = c(rep(0, 3), rep(2, 4), rep(5, 1), rep(14, 6), rep(40, 2))
+)
+probs <- c(0, 0.1, 0.25, 0.5, 0.75, 0.9, 1)
+for (name in names(samples)) {
+  q <- quantile(samples[[name]], probs, type = 7, names = FALSE)
+  for (i in seq_along(probs))
+    cat(sprintf("%s %s %s\n", name, format(probs[i]), format(q[i], digits = 17)))
+}
