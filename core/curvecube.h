@@ -1,0 +1,84 @@
+// The curve cube: OTB(s, s − d) for every stay night s in a range, every days-before-arrival
+// d = 0 … D and every series (the total, or one per segment / channel / room type), in rooms and
+// revenue — built in one pass over the reservations (brief section 4).
+#pragma once
+
+#include "core/reservation.h"
+
+#include <cstdint>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace cb {
+
+enum class SeriesBy { Total, Segment, Channel, RoomType };
+
+/// "total", "segment", "channel", "room-type" (CLI spelling).
+std::string_view seriesByName(SeriesBy by);
+std::optional<SeriesBy> parseSeriesBy(std::string_view name);
+
+struct CubeOptions {
+  Date firstNight;
+  Date lastNight;   ///< inclusive
+  int maxDba = 365; ///< D: the cell at d = D holds everything booked D or more days ahead
+  SeriesBy by = SeriesBy::Total;
+  /// Reading date T: the data as it stood at the end of T. Cells whose reading date s − d is
+  /// after T are unknown; finals and actuals are known only for nights s ≤ T. nullopt = the
+  /// newest booking or cancellation date in the reservations.
+  std::optional<Date> asOf;
+};
+
+/// Thrown when a reading date is after the newest activity in the data, or options are invalid.
+class AsOfError : public std::invalid_argument {
+public:
+  using std::invalid_argument::invalid_argument;
+};
+
+/// The newest booked_on or cancelled_on among the reservations (the latest valid reading date).
+std::optional<Date> newestActivity(const std::vector<Reservation> &reservations);
+
+class CurveCube {
+public:
+  /// Builds the cube. Throws AsOfError when options.asOf is after newestActivity(reservations)
+  /// ("reading date 2026-11-05 is after the newest booking or cancellation in the data
+  /// (2026-10-31)") or the night range is empty or maxDba < 0.
+  static CurveCube build(const std::vector<Reservation> &reservations, const CubeOptions &options);
+
+  Date firstNight() const { return first_; }
+  Date lastNight() const { return last_; }
+  int nights() const { return nights_; }
+  int maxDba() const { return maxDba_; }
+  Date asOf() const { return asOf_; }
+  SeriesBy by() const { return by_; }
+  /// Series names: {"ALL"} for the total, else the codes sorted (empty code shown as "(none)").
+  /// Series 0 is always "ALL" (the total) when by != Total too, followed by the split.
+  const std::vector<std::string> &series() const { return series_; }
+  std::optional<std::size_t> seriesIndex(const std::string &name) const;
+
+  /// True when the cell's reading date s − d is on or before asOf().
+  bool known(Date night, int dba) const { return night - dba <= asOf_; }
+  /// OTB(s, s − d) in rooms; requires series < series().size(), firstNight ≤ s ≤ lastNight and
+  /// 0 ≤ d ≤ maxDba (else std::out_of_range). Unknown cells (see known()) read 0.
+  int otbRooms(std::size_t series, Date night, int dba) const;
+  /// Revenue on the books (rate × rooms), same cells; exact to 1e-6 of the currency unit.
+  double otbRevenue(std::size_t series, Date night, int dba) const;
+  /// Final(s) = OTB(s, s); nullopt when s is after asOf().
+  std::optional<int> final(std::size_t series, Date night) const;
+  /// Actual(s) = Final(s) less no-show rooms; nullopt when s is after asOf().
+  std::optional<int> actual(std::size_t series, Date night) const;
+
+private:
+  std::size_t cell(std::size_t series, Date night, int dba) const;
+  Date first_, last_, asOf_;
+  int nights_ = 0, maxDba_ = 0;
+  SeriesBy by_ = SeriesBy::Total;
+  std::vector<std::string> series_;
+  std::vector<std::int32_t> rooms_;   ///< [series][night][dba]
+  std::vector<std::int64_t> revenue_; ///< same layout, in millionths of the currency unit
+  std::vector<std::int32_t> noShow_;  ///< [series][night] no-show rooms
+};
+
+} // namespace cb

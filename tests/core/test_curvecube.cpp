@@ -1,0 +1,382 @@
+// The curve cube against the definitions (brief section 4), counted another way: straight from
+// the reservation rows with Reservation::onBooks / bookingCurve, by hand, and (for the open
+// dataset) by an independent pandas script whose output is committed under tests/reference/.
+#include "core/curvecube.h"
+
+#include "core/bookingcurve.h"
+#include "core/reservationimporter.h"
+#include "core/simulator.h"
+#include "core/store.h"
+#include "testsupport.h"
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <map>
+#include <random>
+#include <sstream>
+
+using cb::CubeOptions;
+using cb::CurveCube;
+using cb::Date;
+using cb::Reservation;
+using cb::ReservationStatus;
+using cb::SeriesBy;
+
+namespace {
+
+Date d(const char *iso) { return *Date::parseIso(iso); }
+
+Reservation res(const char *id, const char *booked, const char *arr, const char *dep, int rooms,
+                double rate, const char *seg, const char *cancelled = nullptr) {
+  Reservation r;
+  r.id = id;
+  r.bookedOn = d(booked);
+  r.arrival = d(arr);
+  r.departure = d(dep);
+  r.rooms = rooms;
+  r.rate = rate;
+  r.segment = seg;
+  r.channel = "WEB";
+  r.roomType = "STD";
+  if (cancelled) {
+    r.status = ReservationStatus::Cancelled;
+    r.cancelledOn = d(cancelled);
+  }
+  return r;
+}
+
+double seconds(std::chrono::steady_clock::time_point t0) {
+  return std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
+}
+
+const std::string &codeOf(const Reservation &r, SeriesBy by) {
+  switch (by) {
+  case SeriesBy::Segment: return r.segment;
+  case SeriesBy::Channel: return r.channel;
+  default: return r.roomType;
+  }
+}
+
+std::pair<Date, Date> stayRange(const std::vector<Reservation> &rs) {
+  Date lo = rs.front().arrival, hi = rs.front().arrival;
+  for (const auto &r : rs) {
+    lo = std::min(lo, r.arrival);
+    hi = std::max(hi, r.departure - 1);
+  }
+  return {lo, hi};
+}
+
+/// Compares `cells` random (night, lead, series) cells, and every series of a few whole nights,
+/// with a count straight from the rows: Reservation::onBooks per row, or bookingCurve for the
+/// segment split — code paths that share nothing with the cube's intervals.
+void crossCheck(const std::vector<Reservation> &rs, const CurveCube &cube, int cells,
+                unsigned seed) {
+  // Rows by night covered, so the brute force stays affordable; the count itself is onBooks.
+  std::vector<std::vector<const Reservation *>> byNight(static_cast<std::size_t>(cube.nights()));
+  for (const auto &r : rs)
+    for (Date s = std::max(r.arrival, cube.firstNight());
+         s < std::min(r.departure, cube.lastNight() + 1); ++s)
+      byNight[static_cast<std::size_t>(s - cube.firstNight())].push_back(&r);
+
+  std::mt19937 rng(seed);
+  std::uniform_int_distribution<int> night(0, cube.nights() - 1);
+  std::uniform_int_distribution<int> lead(0, cube.maxDba());
+  std::uniform_int_distribution<std::size_t> series(0, cube.series().size() - 1);
+  int checked = 0, nonZero = 0;
+  for (int k = 0; k < cells; ++k) {
+    const Date s = cube.firstNight() + night(rng);
+    const int h = lead(rng);
+    const std::size_t i = series(rng);
+    if (!cube.known(s, h)) {
+      EXPECT_EQ(cube.otbRooms(i, s, h), 0) << "unknown cells read 0";
+      continue;
+    }
+    const std::string &name = cube.series()[i];
+    int rooms = 0;
+    double revenue = 0;
+    for (const Reservation *r : byNight[static_cast<std::size_t>(s - cube.firstNight())]) {
+      if (i != 0 && codeOf(*r, cube.by()) != (name == "(none)" ? std::string() : name))
+        continue;
+      if (r->onBooks(s, s - h)) {
+        rooms += r->rooms;
+        revenue += r->rate * r->rooms;
+      }
+    }
+    ASSERT_EQ(cube.otbRooms(i, s, h), rooms) << name << " " << s.toIso() << " d=" << h;
+    ASSERT_NEAR(cube.otbRevenue(i, s, h), revenue, 1e-6 * std::max(1.0, revenue))
+        << name << " " << s.toIso() << " d=" << h;
+    ++checked;
+    nonZero += rooms > 0;
+  }
+  EXPECT_GT(checked, cells / 4);
+  EXPECT_GT(nonZero, checked / 4) << "the sample of cells should mostly hold bookings";
+
+  if (cube.by() != SeriesBy::Segment && cube.by() != SeriesBy::Total)
+    return;
+  // Whole curves of a few known nights through bookingCurve (segment filter or the total).
+  for (int k = 0; k < 20; ++k) {
+    const Date s = std::min(cube.firstNight() + night(rng), cube.asOf());
+    if (s < cube.firstNight())
+      continue;
+    const std::size_t i = series(rng);
+    const std::string &name = cube.series()[i];
+    cb::NightCurve c = cb::bookingCurve(rs, s, cube.maxDba(), i == 0 ? std::string() : name);
+    for (int h = 0; h <= cube.maxDba(); ++h) {
+      ASSERT_EQ(cube.otbRooms(i, s, h), c.rooms[static_cast<std::size_t>(h)])
+          << name << " " << s.toIso() << " d=" << h;
+      ASSERT_NEAR(cube.otbRevenue(i, s, h), c.revenue[static_cast<std::size_t>(h)],
+                  1e-6 * std::max(1.0, c.revenue[static_cast<std::size_t>(h)]));
+    }
+  }
+}
+
+/// The total equals the sum of the split in every cell, finals and actuals included.
+void checkTotalIsSumOfSplit(const CurveCube &cube) {
+  ASSERT_GT(cube.series().size(), 2u);
+  for (Date s = cube.firstNight(); s <= cube.lastNight(); ++s) {
+    for (int h = 0; h <= cube.maxDba(); ++h) {
+      int rooms = 0;
+      double revenue = 0;
+      for (std::size_t i = 1; i < cube.series().size(); ++i) {
+        rooms += cube.otbRooms(i, s, h);
+        revenue += cube.otbRevenue(i, s, h);
+      }
+      ASSERT_EQ(cube.otbRooms(0, s, h), rooms) << s.toIso() << " d=" << h;
+      ASSERT_NEAR(cube.otbRevenue(0, s, h), revenue, 1e-6 * std::max(1.0, revenue));
+    }
+    if (s > cube.asOf())
+      continue;
+    int actual = 0;
+    for (std::size_t i = 1; i < cube.series().size(); ++i)
+      actual += *cube.actual(i, s);
+    ASSERT_EQ(*cube.actual(0, s), actual) << s.toIso();
+  }
+}
+
+/// Σ finals over every night up to the reading date = room-nights of the bookings not
+/// cancelled, counted per row; Σ actuals = the same less the no-shows' room-nights.
+void checkFinalsAreRoomNights(const std::vector<Reservation> &rs, Date asOf) {
+  auto [first, last] = stayRange(rs);
+  last = std::min(last, asOf);
+  CubeOptions o{first, last, 0, SeriesBy::Total, asOf};
+  CurveCube cube = CurveCube::build(rs, o);
+  std::int64_t roomNights = 0, noShowNights = 0;
+  for (const auto &r : rs) {
+    // Every cancellation here falls before arrival, so "not cancelled" and "not cancelled by
+    // the night" are the same rows.
+    ASSERT_TRUE(!r.cancelledOn || *r.cancelledOn <= r.arrival) << r.id;
+    if (r.status == ReservationStatus::Cancelled || r.bookedOn > asOf)
+      continue;
+    const std::int64_t n = std::max(0, std::min(r.departure, last + 1) - r.arrival);
+    roomNights += n * r.rooms;
+    if (r.status == ReservationStatus::NoShow)
+      noShowNights += n * r.rooms;
+  }
+  std::int64_t finals = 0, actuals = 0;
+  for (Date s = first; s <= last; ++s) {
+    finals += *cube.final(0, s);
+    actuals += *cube.actual(0, s);
+  }
+  EXPECT_GT(roomNights, 0);
+  EXPECT_GT(noShowNights, 0);
+  EXPECT_EQ(finals, roomNights);
+  EXPECT_EQ(actuals, roomNights - noShowNights);
+}
+
+const cb::SampleProperty &sample() {
+  static const cb::SampleProperty s = cb::simulateProperty();
+  return s;
+}
+
+CubeOptions wholeRange(const std::vector<Reservation> &rs, SeriesBy by, int maxDba = 365) {
+  auto [first, last] = stayRange(rs);
+  return CubeOptions{first, last, maxDba, by, std::nullopt};
+}
+
+} // namespace
+
+TEST(CurveCube, SeriesByNamesRoundTrip) {
+  for (SeriesBy by : {SeriesBy::Total, SeriesBy::Segment, SeriesBy::Channel, SeriesBy::RoomType})
+    EXPECT_EQ(cb::parseSeriesBy(cb::seriesByName(by)), by);
+  EXPECT_EQ(cb::seriesByName(SeriesBy::RoomType), "room-type");
+  EXPECT_FALSE(cb::parseSeriesBy("rooms"));
+}
+
+TEST(CurveCube, MatchesHandComputedOtb) {
+  // Night s = 2026-06-13; the same rows as the bookingCurve test, worked out by hand.
+  std::vector<Reservation> rs = {
+      res("a", "2026-06-03", "2026-06-12", "2026-06-14", 3, 100, "CORP"), // from d = 10
+      res("b", "2026-06-11", "2026-06-13", "2026-06-14", 2, 150, "FLEX"), // from d = 2
+      res("c", "2026-06-01", "2026-06-13", "2026-06-15", 4, 90, "FLEX", "2026-06-08"), // d 12..6
+      res("x", "2026-06-01", "2026-06-13", "2026-06-13", 5, 50, "FLEX"),     // day use: no night
+      res("y", "2026-06-01", "2026-06-11", "2026-06-13", 6, 50, "FLEX"),     // departs on s
+      res("z", "2026-06-12", "2026-06-14", "2026-06-15", 7, 50, "FLEX"),     // arrives after s
+      res("n", "2026-06-02", "2026-06-13", "2026-06-14", 1, 80, ""),         // no-show, no segment
+      res("later", "2026-06-20", "2026-07-01", "2026-07-02", 1, 10, "FLEX"), // sets the as-of
+  };
+  rs[6].status = ReservationStatus::NoShow;
+  CurveCube cube = CurveCube::build(
+      rs, CubeOptions{d("2026-06-10"), d("2026-06-16"), 14, SeriesBy::Segment, std::nullopt});
+  EXPECT_EQ(cube.asOf(), d("2026-06-20"));
+  EXPECT_EQ(cube.nights(), 7);
+  ASSERT_EQ(cube.series(), (std::vector<std::string>{"ALL", "(none)", "CORP", "FLEX"}));
+  const Date s = d("2026-06-13");
+  const int all[15] = {6, 6, 6, 4, 4, 4, 8, 8, 8, 8, 8, 5, 4, 0, 0};
+  const int flex[15] = {2, 2, 2, 0, 0, 0, 4, 4, 4, 4, 4, 4, 4, 0, 0};
+  for (int h = 0; h <= 14; ++h) {
+    EXPECT_EQ(cube.otbRooms(0, s, h), all[h]) << "d " << h;
+    EXPECT_EQ(cube.otbRooms(3, s, h), flex[h]) << "d " << h;
+    EXPECT_EQ(cube.otbRooms(2, s, h), h <= 10 ? 3 : 0) << "d " << h;
+    EXPECT_EQ(cube.otbRooms(1, s, h), h <= 11 ? 1 : 0) << "d " << h;
+  }
+  EXPECT_DOUBLE_EQ(cube.otbRevenue(0, s, 0), 3 * 100.0 + 2 * 150.0 + 80.0);
+  EXPECT_DOUBLE_EQ(cube.otbRevenue(0, s, 7), 3 * 100.0 + 4 * 90.0 + 80.0);
+  EXPECT_DOUBLE_EQ(cube.otbRevenue(3, s, 12), 4 * 90.0);
+  EXPECT_DOUBLE_EQ(cube.otbRevenue(0, s, 14), 0.0);
+  EXPECT_EQ(cube.final(0, s), 6);
+  EXPECT_EQ(cube.actual(0, s), 5); // the no-show's room was on the books but not occupied
+  EXPECT_EQ(cube.actual(1, s), 0);
+  EXPECT_EQ(cube.actual(3, s), 2);
+  // Night 2026-06-12: a (3) and y (6); the day use on 06-13 never counts.
+  EXPECT_EQ(cube.final(0, d("2026-06-12")), 9);
+  EXPECT_EQ(cube.final(0, d("2026-06-16")), 0);
+  EXPECT_EQ(cube.seriesIndex("FLEX"), 3u);
+  EXPECT_FALSE(cube.seriesIndex("GRP"));
+  EXPECT_THROW(cube.otbRooms(4, s, 0), std::out_of_range);
+  EXPECT_THROW(cube.otbRooms(0, d("2026-06-17"), 0), std::out_of_range);
+  EXPECT_THROW(cube.otbRooms(0, s, 15), std::out_of_range);
+}
+
+TEST(CurveCube, AsOfHidesLaterCellsAndFinals) {
+  std::vector<Reservation> rs = {
+      res("a", "2026-06-01", "2026-06-10", "2026-06-12", 2, 100, "CORP"),
+      res("b", "2026-06-05", "2026-06-10", "2026-06-11", 1, 100, "CORP", "2026-06-09"),
+      res("c", "2026-06-11", "2026-06-20", "2026-06-21", 1, 100, "CORP"),
+  };
+  CurveCube cube = CurveCube::build(
+      rs, CubeOptions{d("2026-06-08"), d("2026-06-12"), 10, SeriesBy::Total, d("2026-06-08")});
+  const Date s = d("2026-06-10");
+  EXPECT_TRUE(cube.known(s, 2));
+  EXPECT_FALSE(cube.known(s, 1));
+  EXPECT_EQ(cube.otbRooms(0, s, 2), 3); // b is still on the books on 06-08
+  EXPECT_EQ(cube.otbRooms(0, s, 1), 0); // read on 06-09: unknown as of 06-08
+  EXPECT_FALSE(cube.final(0, s));
+  EXPECT_FALSE(cube.actual(0, s));
+  EXPECT_EQ(cube.final(0, d("2026-06-09")), std::nullopt);
+  EXPECT_EQ(cube.final(0, d("2026-06-08")), 0);
+}
+
+TEST(CurveCube, RefusesReadingDateAfterTheDataAndBadOptions) {
+  std::vector<Reservation> rs = {
+      res("a", "2026-10-01", "2026-11-10", "2026-11-12", 2, 100, "CORP", "2026-10-31"),
+      res("b", "2026-10-20", "2026-11-10", "2026-11-11", 1, 100, "CORP"),
+  };
+  EXPECT_EQ(cb::newestActivity(rs), d("2026-10-31"));
+  CubeOptions o{d("2026-11-01"), d("2026-11-30"), 30, SeriesBy::Total, d("2026-11-05")};
+  try {
+    CurveCube::build(rs, o);
+    ADD_FAILURE() << "a reading date after the data must be refused";
+  } catch (const cb::AsOfError &e) {
+    EXPECT_STREQ(e.what(), "reading date 2026-11-05 is after the newest booking or cancellation "
+                           "in the data (2026-10-31)");
+  }
+  o.asOf = d("2026-10-31");
+  EXPECT_NO_THROW(CurveCube::build(rs, o));
+  o.lastNight = d("2026-10-30");
+  EXPECT_THROW(CurveCube::build(rs, o), cb::AsOfError);
+  o.lastNight = d("2026-11-30");
+  o.maxDba = -1;
+  EXPECT_THROW(CurveCube::build(rs, o), cb::AsOfError);
+  EXPECT_THROW(CurveCube::build({}, CubeOptions{d("2026-11-01"), d("2026-11-30"), 30,
+                                                SeriesBy::Total, std::nullopt}),
+               cb::AsOfError);
+}
+
+TEST(CurveCube, SampleMatchesRowCountsForEverySplit) {
+  const auto &rs = sample().reservations;
+  for (SeriesBy by : {SeriesBy::Segment, SeriesBy::Channel, SeriesBy::RoomType}) {
+    auto t0 = std::chrono::steady_clock::now();
+    CurveCube cube = CurveCube::build(rs, wholeRange(rs, by));
+    std::printf("[ timing   ] sample cube by %s (%zu rows, %d nights, %zu series) in %.3f s\n",
+                std::string(cb::seriesByName(by)).c_str(), rs.size(), cube.nights(),
+                cube.series().size(), seconds(t0));
+    EXPECT_EQ(cube.asOf(), sample().readingDate);
+    crossCheck(rs, cube, 4000, 7u + static_cast<unsigned>(by));
+    checkTotalIsSumOfSplit(cube);
+  }
+}
+
+TEST(CurveCube, SampleFinalsAreTheRoomNightsNotCancelled) {
+  checkFinalsAreRoomNights(sample().reservations, sample().readingDate);
+}
+
+namespace {
+
+/// The reservations as an extract taken at the end of day T would have shown them: rows booked
+/// later are absent, later cancellations not yet made, later no-shows and check-outs not yet
+/// known.
+std::vector<Reservation> extractAsOf(const std::vector<Reservation> &rs, Date t) {
+  std::vector<Reservation> out;
+  for (Reservation r : rs) {
+    if (r.bookedOn > t)
+      continue;
+    if (r.cancelledOn && *r.cancelledOn > t) {
+      r.status = ReservationStatus::Booked;
+      r.cancelledOn.reset();
+    }
+    if (r.status != ReservationStatus::Cancelled && r.arrival > t)
+      r.status = ReservationStatus::Booked;
+    out.push_back(std::move(r));
+  }
+  return out;
+}
+
+void expectSameKnownFigures(const CurveCube &a, const CurveCube &b) {
+  ASSERT_EQ(a.series(), b.series());
+  ASSERT_EQ(a.asOf(), b.asOf());
+  int knownCells = 0;
+  for (std::size_t i = 0; i < a.series().size(); ++i) {
+    for (Date s = a.firstNight(); s <= a.lastNight(); ++s) {
+      for (int h = 0; h <= a.maxDba(); ++h) {
+        if (!a.known(s, h))
+          continue;
+        ++knownCells;
+        ASSERT_EQ(a.otbRooms(i, s, h), b.otbRooms(i, s, h)) << s.toIso() << " d=" << h;
+        ASSERT_EQ(a.otbRevenue(i, s, h), b.otbRevenue(i, s, h)) << s.toIso() << " d=" << h;
+      }
+      ASSERT_EQ(a.final(i, s), b.final(i, s)) << s.toIso();
+      ASSERT_EQ(a.actual(i, s), b.actual(i, s)) << s.toIso();
+    }
+  }
+  EXPECT_GT(knownCells, 100000);
+}
+
+} // namespace
+
+TEST(CurveCube, AsOfIgnoresEverythingDatedLater) {
+  const auto &all = sample().reservations;
+  // T: a day with bookings, so the cut extract still reaches it; well inside the history.
+  const Date t = d("2025-06-17");
+  std::vector<Reservation> cut = extractAsOf(all, t);
+  ASSERT_EQ(cb::newestActivity(cut), t);
+  ASSERT_LT(cut.size(), all.size());
+  ASSERT_TRUE(std::any_of(all.begin(), all.end(), [&](const Reservation &r) {
+    return r.cancelledOn && *r.cancelledOn > t && r.bookedOn <= t;
+  })) << "the check needs cancellations that come after T";
+  for (SeriesBy by : {SeriesBy::Total, SeriesBy::Segment}) {
+    CubeOptions o = wholeRange(all, by);
+    o.asOf = t;
+    CurveCube fromAll = CurveCube::build(all, o);
+    CurveCube fromCut = CurveCube::build(cut, o);
+    expectSameKnownFigures(fromAll, fromCut);
+    EXPECT_TRUE(fromAll.final(0, t));
+    EXPECT_FALSE(fromAll.final(0, t + 1));
+    // The newest data does change figures as of T would have hidden: finals after T appear.
+    o.asOf.reset();
+    CurveCube now = CurveCube::build(all, o);
+    EXPECT_TRUE(now.final(0, t + 30));
+  }
+}
