@@ -316,16 +316,25 @@ void Simulation::describeProperty(SampleProperty &out) const {
   out.town = "Ostvale";
   for (std::size_t t = 0; t < kTypes; ++t)
     out.roomTypes.push_back({kTypeCodes[t], kTypeNames[t], kTypeRooms[t]});
-  out.roomTypes[kStd].rooms = cfg_.capacity - (kTypeRooms[1] + kTypeRooms[2] + kTypeRooms[3]);
-  if (out.roomTypes[kStd].rooms < 20)
-    throw std::invalid_argument("simulateProperty: capacity must be at least 82 rooms");
+  // The smaller types keep their share of the 150-room sample (exactly its counts at 150), so a
+  // larger property keeps the same room mix; standard rooms take the rest.
+  int others = 0;
+  for (std::size_t t = 1; t < kTypes; ++t) {
+    out.roomTypes[t].rooms =
+        static_cast<int>(std::lround(kTypeRooms[t] * static_cast<double>(cfg_.capacity) / 150.0));
+    others += out.roomTypes[t].rooms;
+  }
+  out.roomTypes[kStd].rooms = cfg_.capacity - others;
+  if (out.roomTypes[kStd].rooms < 20 || out.roomTypes[kSup].rooms <= kRefurbishedRooms)
+    throw std::invalid_argument("simulateProperty: capacity must be at least 47 rooms");
   const Date closed = Date::fromYmd(2025, 1, 6), reopened = Date::fromYmd(2025, 3, 1);
   out.property.capacityChanges = {
       {closed, cfg_.capacity - kRefurbishedRooms,
        fmt::format("{} superior rooms closed for refurbishment", kRefurbishedRooms)},
       {reopened, cfg_.capacity, "refurbished superior rooms reopened"}};
-  out.roomTypeChanges = {{kTypeCodes[kSup], closed, kTypeRooms[kSup] - kRefurbishedRooms},
-                         {kTypeCodes[kSup], reopened, kTypeRooms[kSup]}};
+  const int superior = out.roomTypes[kSup].rooms;
+  out.roomTypeChanges = {{kTypeCodes[kSup], closed, superior - kRefurbishedRooms},
+                         {kTypeCodes[kSup], reopened, superior}};
   for (std::size_t s = 0; s < kSegments; ++s)
     out.segments.push_back({kSegCodes[s], kSegNames[s], static_cast<int>(s) + 1, kSegColours[s]});
   for (std::size_t c = 0; c < kChannels; ++c)
@@ -356,7 +365,7 @@ void Simulation::generateIndividual(const IndividualModel &m, Date arrival, doub
   const double years = (arrival - cfg_.historyStart) / 365.25;
   double mean = m.arrivalsPerDay * cfg_.capacity / 150.0 * m.season[seasonIndex(arrival)] *
                 m.weekday[arrival.isoWeekday() - 1] / weekdayMean *
-                (1.0 + kDemandGrowthPerYear * years) * shock;
+                (1.0 + kDemandGrowthPerYear * years) * shock * cfg_.demandScale;
   const EventModel *event = eventOn(events_, arrival);
   if (event)
     mean *= event->demandLift[m.seg];
@@ -377,6 +386,11 @@ void Simulation::generateIndividual(const IndividualModel &m, Date arrival, doub
     r.requested = leadDate(arrival, m.minLead + lead);
     r.nights = static_cast<int>(rng_.choose(m.los)) + 1;
     r.rooms = static_cast<int>(rng_.choose(m.rooms)) + 1;
+    // Drawn only when asked for, so the default sample's draws (and files) stay the same.
+    if (cfg_.shortStayShare > 0.0 && rng_.bernoulli(cfg_.shortStayShare)) {
+      r.nights = 1;
+      r.rooms = 1;
+    }
     r.roomType = rng_.choose(m.types);
     r.channel = rng_.choose(m.channels);
     r.cancelOn = drawCancel(r.requested, arrival, m.cancelShare);
@@ -392,7 +406,7 @@ void Simulation::generateGroup(Date arrival) {
   for (double w : gm.weekday)
     weekdayMean += w / 7.0;
   const double mean = gm.perDay * cfg_.capacity / 150.0 * gm.season[seasonIndex(arrival)] *
-                      gm.weekday[arrival.isoWeekday() - 1] / weekdayMean;
+                      gm.weekday[arrival.isoWeekday() - 1] / weekdayMean * cfg_.demandScale;
   const int n = rng_.poisson(mean);
   for (int i = 0; i < n; ++i) {
     Group g;
@@ -763,6 +777,19 @@ int SampleProperty::roomsOfTypeOn(const std::string &roomType, Date s) const {
       rooms = c.rooms;
     }
   return rooms;
+}
+
+SimulatorConfig millionBookingConfig() {
+  SimulatorConfig c;
+  c.capacity = 600;
+  c.historyStart = Date::fromYmd(2021, 11, 1);
+  c.readingDate = Date::fromYmd(2026, 10, 31);
+  c.futureDays = 365;
+  // Tuned by hand to land near 1,000,000 rows (999,256 with the default seed) at about 84 %
+  // occupancy: a busy transit hotel whose individual guests stay one night in one room.
+  c.demandScale = 2.9;
+  c.shortStayShare = 1.0;
+  return c;
 }
 
 SampleProperty simulateProperty(const SimulatorConfig &config) { return Simulation(config).run(); }

@@ -17,7 +17,19 @@ struct SimulatorConfig {
   Date historyStart = Date::fromYmd(2023, 11, 1); ///< first stay night simulated
   Date readingDate = Date::fromYmd(2026, 10, 31); ///< data is cut here ("as of")
   int futureDays = 365;                           ///< nights after the reading date on the books
+  /// Multiplies the request rate of every segment, groups included (1 = the sample's model).
+  double demandScale = 1.0;
+  /// Share of individual (non-group) requests turned into one night for one room, drawn per
+  /// request. Short stays give more rows per occupied room-night, so a synthetic property can
+  /// reach a large row count at a believable occupancy. 0 = the sample's length-of-stay model.
+  double shortStayShare = 0.0;
 };
+
+/// A synthetic property of about one million reservation rows for benchmarks (issue 3): 600
+/// rooms, five years of history to the reading date plus a year on the books, demand 2.9 times
+/// the sample's per room and every individual stay one night for one room (groups unchanged).
+/// Not a committed sample; about 4 s and 400 MB to simulate.
+SimulatorConfig millionBookingConfig();
 
 /// True demand of one night and segment, before capacity turned requests away.
 struct TrueDemand {
