@@ -73,8 +73,10 @@ PickupSummary PickupSummary::build(const std::vector<Reservation> &reservations,
       newest = std::max(*newest, *r.cancelledOn);
     if (r.bookedOn <= options.asOf && !r.isDayUse())
       lastCovered = std::max(lastCovered.value_or(r.departure - 1), r.departure - 1);
-    if (options.by != SeriesBy::Total)
-      codes.push_back(seriesName(codeOf(r, options.by)));
+    // Codes of rows known at the reading date only, as CurveCube does, so nothing dated later
+    // changes even the list of series.
+    if (options.by != SeriesBy::Total && r.bookedOn <= options.asOf)
+      codes.push_back(codeOf(r, options.by));
   }
   if (newest && options.asOf > *newest)
     throw AsOfError(fmt::format("reading date {} is after the newest booking or cancellation in "
@@ -83,7 +85,8 @@ PickupSummary PickupSummary::build(const std::vector<Reservation> &reservations,
   std::sort(codes.begin(), codes.end());
   codes.erase(std::unique(codes.begin(), codes.end()), codes.end());
   s.series_.push_back("ALL");
-  s.series_.insert(s.series_.end(), codes.begin(), codes.end());
+  for (const auto &code : codes)
+    s.series_.push_back(seriesName(code));
 
   const Date last = options.lastNight ? *options.lastNight : lastCovered.value_or(options.asOf);
   s.nights_ = std::max(0, last - options.asOf);
@@ -101,14 +104,13 @@ PickupSummary PickupSummary::build(const std::vector<Reservation> &reservations,
   for (const auto &r : reservations) {
     const int lo = std::max(r.arrival, first) - first;
     const int hi = std::min(r.departure, last + 1) - first;
-    if (lo >= hi)
+    if (lo >= hi || r.bookedOn > options.asOf)
       continue;
     std::size_t seriesIdx = 0;
-    if (options.by != SeriesBy::Total) {
-      auto name = seriesName(codeOf(r, options.by));
-      seriesIdx = static_cast<std::size_t>(
-          std::lower_bound(s.series_.begin() + 1, s.series_.end(), name) - s.series_.begin());
-    }
+    if (options.by != SeriesBy::Total)
+      seriesIdx = 1 + static_cast<std::size_t>(
+                          std::lower_bound(codes.begin(), codes.end(), codeOf(r, options.by)) -
+                          codes.begin());
     for (std::size_t w = 0; w < s.windows_.size(); ++w) {
       const PickupWindow win = s.windows_[w];
       // Every covered night in range shares the same status, so one test serves them all.

@@ -71,8 +71,8 @@ public:
   Date lastNight() const { return asOf_ + nights_; }
   int nights() const { return nights_; }
   const std::vector<PickupWindow> &windows() const { return windows_; }
-  /// "ALL" first, then the codes of the split sorted ("(none)" for an empty code), the same
-  /// naming as CurveCube::series().
+  /// "ALL" first, then the codes of the split among rows booked on or before asOf, sorted
+  /// ("(none)" for an empty code): the same list as CurveCube::series().
   const std::vector<std::string> &series() const { return series_; }
   std::optional<std::size_t> seriesIndex(const std::string &name) const;
 
