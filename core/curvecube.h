@@ -6,6 +6,7 @@
 #include "core/reservation.h"
 
 #include <cstdint>
+#include <memory_resource>
 #include <optional>
 #include <stdexcept>
 #include <string>
@@ -76,9 +77,11 @@ private:
   int nights_ = 0, maxDba_ = 0;
   SeriesBy by_ = SeriesBy::Total;
   std::vector<std::string> series_;
-  std::vector<std::int32_t> rooms_;   ///< [series][night][dba]
-  std::vector<std::int64_t> revenue_; ///< same layout, in millionths of the currency unit
-  std::vector<std::int32_t> noShow_;  ///< [series][night] no-show rooms
+  /// Where the large arrays live (see curvecube.cpp: large blocks on huge pages).
+  static std::pmr::memory_resource *bigBlocks();
+  std::pmr::vector<std::int32_t> rooms_{bigBlocks()};   ///< [series][night][dba]
+  std::pmr::vector<std::int64_t> revenue_{bigBlocks()}; ///< same layout, in millionths
+  std::vector<std::int32_t> noShow_;                    ///< [series][night] no-show rooms
 };
 
 } // namespace cb
