@@ -8,7 +8,11 @@ samples <- list(
   single = c(42),
   pair = c(-5, 5),
   decimals = c(0.5, 2.25, -1.75, 3.125, 10, 7.5, 7.5),
-  leads = c(rep(0, 3), rep(2, 4), rep(5, 1), rep(14, 6), rep(40, 2))
+  leads = c(rep(0, 3), rep(2, 4), rep(5, 1), rep(14, 6), rep(40, 2)),
+  # Lead times per room-night of the hand-made set in tests/core/test_bookingwindow.cpp.
+  window_all = c(0, 0, 1, 1, 3, 6, 6, 6, 25, 70, 70, 70, 70, 231, 231),
+  window_flex = c(0, 0, 3, 25, 70, 70, 70, 70),
+  window_corp = c(1, 1, 6, 6, 6, 231, 231)
 )
 probs <- c(0, 0.1, 0.25, 0.5, 0.75, 0.9, 1)
 for (name in names(samples)) {
