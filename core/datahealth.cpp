@@ -313,11 +313,12 @@ Findings checkDataHealth(const std::vector<Reservation> &reservations, const Pro
         ++unknown[r.segment];
     for (const auto &[code, count] : unknown)
       add(Severity::Warning,
-          code.empty() ? fmt::format("{} {} no segment", formatCount(count),
-                                     count == 1 ? "reservation has" : "reservations have")
-                       : fmt::format("segment \"{}\" is not set up (no name, no yield rank): {} "
-                                     "reservations",
-                                     code, formatCount(count)));
+          code.empty()
+              ? fmt::format("{} {} no segment", formatCount(count),
+                            count == 1 ? "reservation has" : "reservations have")
+              : fmt::format("segment \"{}\" is not set up (no name, no yield rank): {} "
+                            "{}",
+                            code, formatCount(count), count == 1 ? "reservation" : "reservations"));
   }
   return out;
 }
