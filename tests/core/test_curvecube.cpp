@@ -380,3 +380,105 @@ TEST(CurveCube, AsOfIgnoresEverythingDatedLater) {
     EXPECT_TRUE(now.final(0, t + 30));
   }
 }
+
+// ---- The open city dataset: Antonio, de Almeida & Nunes, "Hotel booking demand datasets",
+// Data in Brief 22 (2019) 41–49, doi:10.1016/j.dib.2018.11.126, CC BY 4.0. ----
+
+namespace {
+
+class OpenCity : public ::testing::Test {
+protected:
+  static void SetUpTestSuite() {
+    const auto csv = cbtest::openCityCsv();
+    if (!std::filesystem::exists(csv)) {
+      const char *allow = std::getenv("CURVEBENCH_ALLOW_MISSING_SHARED");
+      skip_ = allow != nullptr && std::string_view(allow) == "1";
+      missing_ = "open dataset not found at " + csv.string() +
+                 (skip_ ? " (skipped: CURVEBENCH_ALLOW_MISSING_SHARED=1)"
+                        : "; put the shared folder beside the clone, or set "
+                          "CURVEBENCH_ALLOW_MISSING_SHARED=1 to skip this test");
+      return;
+    }
+    cbtest::TempDir dir;
+    cb::Property p;
+    p.name = "City hotel (open data)";
+    p.capacity = 400;
+    auto store = cb::Store::create(dir / "open.curvebench", p);
+    cb::ImportOptions opt;
+    opt.profile = "hotel-bookings-open-data";
+    cb::ImportReport rep = cb::importReservations(*store, csv, opt);
+    ASSERT_TRUE(rep.written);
+    rows_ = new std::vector<Reservation>(store->reservations());
+  }
+  static void TearDownTestSuite() {
+    delete rows_;
+    rows_ = nullptr;
+  }
+  void SetUp() override {
+    if (!missing_.empty()) {
+      if (skip_)
+        GTEST_SKIP() << missing_;
+      FAIL() << missing_;
+    }
+    ASSERT_NE(rows_, nullptr) << "the import failed";
+  }
+  static const std::vector<Reservation> &rows() { return *rows_; }
+
+private:
+  static inline std::vector<Reservation> *rows_ = nullptr;
+  static inline std::string missing_;
+  static inline bool skip_ = false;
+};
+
+} // namespace
+
+TEST_F(OpenCity, CubeMatchesRowCountsForEverySplit) {
+  // 79,330 bookings (Antonio et al. 2019, Table 1).
+  ASSERT_EQ(rows().size(), 79330u);
+  for (SeriesBy by : {SeriesBy::Segment, SeriesBy::Channel, SeriesBy::RoomType}) {
+    auto t0 = std::chrono::steady_clock::now();
+    CurveCube cube = CurveCube::build(rows(), wholeRange(rows(), by));
+    std::printf("[ timing   ] open city cube by %s (%zu rows, %d nights, %zu series) in %.3f s\n",
+                std::string(cb::seriesByName(by)).c_str(), rows().size(), cube.nights(),
+                cube.series().size(), seconds(t0));
+    crossCheck(rows(), cube, 4000, 101u + static_cast<unsigned>(by));
+    checkTotalIsSumOfSplit(cube);
+  }
+}
+
+TEST_F(OpenCity, FinalsAreTheRoomNightsNotCancelled) {
+  checkFinalsAreRoomNights(rows(), *cb::newestActivity(rows()));
+}
+
+TEST_F(OpenCity, CurvesMatchThePandasReference) {
+  // tests/reference/open_city_curves.csv: OTB of four nights, d = 0…60, total and by
+  // market_segment, computed from the raw CSV with pandas by tests/reference/open_city_curves.py
+  // (its own date derivations; no Curvebench code involved).
+  std::istringstream in(
+      cbtest::readFile(cbtest::sourceDir() / "tests" / "reference" / "open_city_curves.csv"));
+  CurveCube cube = CurveCube::build(
+      rows(), CubeOptions{d("2016-03-12"), d("2017-05-06"), 60, SeriesBy::Segment, std::nullopt});
+  std::string line;
+  std::getline(in, line);
+  while (!line.empty() && line[0] == '#')
+    std::getline(in, line);
+  ASSERT_EQ(line, "stay_date,series,dba,otb_rooms");
+  std::map<std::string, int> perSeries;
+  int compared = 0;
+  while (std::getline(in, line)) {
+    std::istringstream fields(line);
+    std::string night, series, dba, rooms;
+    std::getline(fields, night, ',');
+    std::getline(fields, series, ',');
+    std::getline(fields, dba, ',');
+    std::getline(fields, rooms, ',');
+    auto i = cube.seriesIndex(series);
+    ASSERT_TRUE(i) << "series missing from the cube: " << series;
+    ASSERT_TRUE(cube.known(d(night.c_str()), std::stoi(dba)));
+    ASSERT_EQ(cube.otbRooms(*i, d(night.c_str()), std::stoi(dba)), std::stoi(rooms)) << line;
+    ++perSeries[series];
+    ++compared;
+  }
+  EXPECT_EQ(compared, 4 * 9 * 61); // 4 nights × (ALL + 8 segments) × d = 0…60
+  EXPECT_EQ(perSeries.size(), cube.series().size()) << "every cube series is in the reference";
+}
