@@ -13,6 +13,7 @@ int main(int argc, char **argv) {
 
   cbcli::VerbList verbs;
   cbcli::addStoreVerbs(app, verbs);
+  cbcli::addHealthVerbs(app, verbs);
 
   try {
     app.parse(argc, argv);

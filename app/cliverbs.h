@@ -21,6 +21,7 @@ struct Verb {
 };
 using VerbList = std::vector<Verb>;
 
-void addStoreVerbs(CLI::App &app, VerbList &verbs); // init, import, info, sample (cli_store.cpp)
+void addStoreVerbs(CLI::App &app, VerbList &verbs);  // init, import, info, sample (cli_store.cpp)
+void addHealthVerbs(CLI::App &app, VerbList &verbs); // health (cli_health.cpp)
 
 } // namespace cbcli
