@@ -12,7 +12,13 @@ samples <- list(
   # Lead times per room-night of the hand-made set in tests/core/test_bookingwindow.cpp.
   window_all = c(0, 0, 1, 1, 3, 6, 6, 6, 25, 70, 70, 70, 70, 231, 231),
   window_flex = c(0, 0, 3, 25, 70, 70, 70, 70),
-  window_corp = c(1, 1, 6, 6, 6, 231, 231)
+  window_corp = c(1, 1, 6, 6, 6, 231, 231),
+  # Reference-night values of the hand-made band in tests/core/test_comparablenights.cpp.
+  band_rooms_d0 = c(3, 4, 0, 1),
+  band_rooms_d1 = c(3, 4, 0, 0),
+  band_rooms_d2 = c(2, 0, 0, 5),
+  band_pct_d1 = c(100, 100, 0),
+  band_pct_d2 = c(200 / 3, 0, 500)
 )
 probs <- c(0, 0.1, 0.25, 0.5, 0.75, 0.9, 1)
 for (name in names(samples)) {
