@@ -23,5 +23,6 @@ using VerbList = std::vector<Verb>;
 
 void addStoreVerbs(CLI::App &app, VerbList &verbs);  // init, import, info, sample (cli_store.cpp)
 void addHealthVerbs(CLI::App &app, VerbList &verbs); // health (cli_health.cpp)
+void addPaceVerbs(CLI::App &app, VerbList &verbs);   // pace (cli_pace.cpp)
 
 } // namespace cbcli
