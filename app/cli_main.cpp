@@ -14,6 +14,7 @@ int main(int argc, char **argv) {
   cbcli::VerbList verbs;
   cbcli::addStoreVerbs(app, verbs);
   cbcli::addHealthVerbs(app, verbs);
+  cbcli::addCurveVerbs(app, verbs);
   cbcli::addPaceVerbs(app, verbs);
 
   try {

@@ -23,6 +23,7 @@ using VerbList = std::vector<Verb>;
 
 void addStoreVerbs(CLI::App &app, VerbList &verbs);  // init, import, info, sample (cli_store.cpp)
 void addHealthVerbs(CLI::App &app, VerbList &verbs); // health (cli_health.cpp)
+void addCurveVerbs(CLI::App &app, VerbList &verbs);  // curves, finals (cli_curves.cpp)
 void addPaceVerbs(CLI::App &app, VerbList &verbs);   // pace (cli_pace.cpp)
 
 } // namespace cbcli

@@ -1,0 +1,224 @@
+// The curve verbs: `curves` (OTB by night and lead) and `finals` (final and actual by night),
+// both as CSV from the curve cube.
+#include "app/cliverbs.h"
+
+#include "core/curvecube.h"
+#include "core/nativeformat.h"
+#include "core/store.h"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
+#include <memory>
+#include <stdexcept>
+
+namespace cbcli {
+namespace {
+
+struct CurvesArgs {
+  std::string store, from, to, by = "total", asOf, out;
+  int maxDba = 365;
+};
+
+/// Checks a YYYY-MM-DD argument while parsing, so a bad date is a usage error (exit 2).
+const CLI::Validator kIsoDate(
+    [](std::string &text) {
+      return cb::Date::parseIso(text) ? std::string() : "not a date (YYYY-MM-DD): " + text;
+    },
+    "DATE");
+
+std::optional<cb::Date> optionalDate(const std::string &text) {
+  return text.empty() ? std::nullopt : cb::Date::parseIso(text);
+}
+
+/// Rows and the range the cube is built over, with the documented defaults filled in.
+struct Request {
+  std::vector<cb::Reservation> rows;
+  cb::CubeOptions options;
+  bool empty = false; ///< the default range holds no night with a known figure: header only
+};
+
+/// Defaults: as-of = the newest booking or cancellation; nights from the first night stayed to
+/// the last night stayed, but no later than `lastUseful(asOf)` (beyond it nothing is known).
+template <class LastUseful>
+Request prepare(const CurvesArgs &a, int maxDba, LastUseful lastUseful) {
+  auto store = cb::Store::open(a.store);
+  Request req;
+  req.rows = store->reservations();
+  const std::optional<cb::Date> newest = cb::newestActivity(req.rows);
+  if (!newest)
+    throw std::runtime_error(a.store + " has no reservations, so there are no curves yet");
+  std::optional<cb::Date> firstNight, lastNight;
+  for (const auto &r : req.rows) {
+    if (r.isDayUse())
+      continue;
+    firstNight = firstNight ? std::min(*firstNight, r.arrival) : r.arrival;
+    lastNight = lastNight ? std::max(*lastNight, r.departure - 1) : r.departure - 1;
+  }
+  if (!firstNight)
+    throw std::runtime_error(a.store + " has only day-use reservations, which occupy no night");
+  const cb::Date asOf = optionalDate(a.asOf).value_or(*newest);
+  req.options.asOf = optionalDate(a.asOf); // the cube refuses a date after the data
+  req.options.firstNight = optionalDate(a.from).value_or(*firstNight);
+  req.options.lastNight = optionalDate(a.to).value_or(std::min(*lastNight, lastUseful(asOf)));
+  req.options.maxDba = maxDba;
+  req.options.by = *cb::parseSeriesBy(a.by);
+  if (req.options.lastNight < req.options.firstNight) {
+    if (!a.from.empty() && !a.to.empty())
+      throw std::runtime_error(fmt::format("--from {} is after --to {}", a.from, a.to));
+    // A default end before the start: e.g. a reading date before the first night stayed.
+    req.empty = true;
+  }
+  if (req.options.asOf && *req.options.asOf > *newest)
+    req.empty = false; // let the cube refuse the reading date with its message
+  if (req.empty)
+    req.options.lastNight = req.options.firstNight;
+  return req;
+}
+
+/// Spreadsheets run a cell starting with = + - @ as a formula (brief section 8); a series name
+/// comes from the data, so such a name is written with a leading apostrophe.
+std::string csvText(const std::string &text) {
+  if (!text.empty() && std::strchr("=+-@\t\r", text.front()) != nullptr)
+    return cb::quoteCsvField("'" + text);
+  return cb::quoteCsvField(text);
+}
+
+/// Buffered CSV output to stdout or a file; close() reports a failed write.
+class CsvOut {
+public:
+  explicit CsvOut(const std::string &path) : path_(path) {
+    file_ = path.empty() ? stdout : std::fopen(path.c_str(), "wb");
+    if (!file_)
+      throw std::runtime_error(fmt::format("cannot write {}: {}", path, std::strerror(errno)));
+  }
+  ~CsvOut() {
+    if (file_ && file_ != stdout)
+      std::fclose(file_);
+  }
+  CsvOut(const CsvOut &) = delete;
+  CsvOut &operator=(const CsvOut &) = delete;
+
+  fmt::memory_buffer &buffer() { return buf_; }
+  void flushIfFull() {
+    if (buf_.size() >= (std::size_t{1} << 20))
+      flush();
+  }
+  void close() {
+    flush();
+    bool ok = std::fflush(file_) == 0 && std::ferror(file_) == 0;
+    if (file_ != stdout) {
+      ok = std::fclose(file_) == 0 && ok;
+      file_ = nullptr;
+    }
+    if (!ok)
+      throw std::runtime_error("cannot write " + name());
+  }
+
+private:
+  void flush() {
+    if (!buf_.size())
+      return;
+    if (std::fwrite(buf_.data(), 1, buf_.size(), file_) != buf_.size())
+      throw std::runtime_error(fmt::format("cannot write {}: {}", name(), std::strerror(errno)));
+    buf_.clear();
+  }
+  std::string name() const { return path_.empty() ? "standard output" : path_; }
+  std::string path_;
+  std::FILE *file_ = nullptr;
+  fmt::memory_buffer buf_;
+};
+
+int runCurves(const CurvesArgs &a) {
+  Request req = prepare(a, a.maxDba, [&](cb::Date asOf) { return asOf + a.maxDba; });
+  const cb::CurveCube cube = cb::CurveCube::build(req.rows, req.options);
+  CsvOut out(a.out);
+  fmt::format_to(std::back_inserter(out.buffer()), "stay_date,series,dba,otb_rooms,otb_revenue\n");
+  if (req.empty) {
+    out.close();
+    return kOk;
+  }
+  std::vector<std::string> names;
+  for (const auto &name : cube.series())
+    names.push_back(csvText(name));
+  for (cb::Date s = cube.firstNight(); s <= cube.lastNight(); ++s) {
+    const std::string night = s.toIso();
+    const int firstKnown = std::max(0, s - cube.asOf());
+    for (std::size_t i = 0; i < names.size(); ++i) {
+      for (int d = firstKnown; d <= cube.maxDba(); ++d)
+        fmt::format_to(std::back_inserter(out.buffer()), "{},{},{},{},{:.2f}\n", night, names[i], d,
+                       cube.otbRooms(i, s, d), cube.otbRevenue(i, s, d) + 0.0);
+      out.flushIfFull();
+    }
+  }
+  out.close();
+  return kOk;
+}
+
+int runFinals(const CurvesArgs &a) {
+  Request req = prepare(a, 0, [](cb::Date asOf) { return asOf; });
+  const cb::CurveCube cube = cb::CurveCube::build(req.rows, req.options);
+  CsvOut out(a.out);
+  fmt::format_to(std::back_inserter(out.buffer()), "stay_date,series,final,actual\n");
+  if (req.empty) {
+    out.close();
+    return kOk;
+  }
+  for (cb::Date s = cube.firstNight(); s <= std::min(cube.lastNight(), cube.asOf()); ++s) {
+    const std::string night = s.toIso();
+    for (std::size_t i = 0; i < cube.series().size(); ++i)
+      fmt::format_to(std::back_inserter(out.buffer()), "{},{},{},{}\n", night,
+                     csvText(cube.series()[i]), *cube.final(i, s), *cube.actual(i, s));
+    out.flushIfFull();
+  }
+  out.close();
+  return kOk;
+}
+
+void addCommonOptions(CLI::App *cmd, CurvesArgs &a, const std::string &toDefault) {
+  cmd->add_option("STORE", a.store, "Store file")->required()->check(CLI::ExistingFile);
+  cmd->add_option("--from", a.from,
+                  "First stay night (default: the first night stayed in the store)")
+      ->check(kIsoDate);
+  cmd->add_option("--to", a.to, "Last stay night (default: " + toDefault + ")")->check(kIsoDate);
+  cmd->add_option("--by", a.by,
+                  "Series: total (default), or segment, channel, room-type — the total (series "
+                  "ALL) followed by one series per code")
+      ->check(CLI::IsMember({"total", "segment", "channel", "room-type"}));
+  cmd->add_option("--as-of", a.asOf,
+                  "Reading date: the data as it stood at the end of this day (default: the "
+                  "newest booking or cancellation; a later date is refused)")
+      ->check(kIsoDate);
+  cmd->add_option("--out", a.out, "Write the CSV to this file (default: standard output)");
+}
+
+} // namespace
+
+void addCurveVerbs(CLI::App &app, VerbList &verbs) {
+  auto a = std::make_shared<CurvesArgs>();
+
+  auto *curves = app.add_subcommand(
+      "curves", "Booking curves as CSV: stay_date,series,dba,otb_rooms,otb_revenue — rooms and "
+                "revenue on the books DBA days before each night, for the cells known at the "
+                "reading date");
+  addCommonOptions(curves, *a,
+                   "the last night stayed, but no later than the reading date + max DBA, as "
+                   "nothing later is known yet");
+  curves
+      ->add_option("--max-dba", a->maxDba,
+                   "Longest lead in days (default 365); d = max holds everything booked that "
+                   "far ahead or more")
+      ->check(CLI::Range(0, 3650));
+  verbs.push_back({curves, [a] { return runCurves(*a); }});
+
+  auto *finals = app.add_subcommand(
+      "finals", "Finals and actuals as CSV: stay_date,series,final,actual — rooms on the books "
+                "on the night, and those less no-shows, for nights up to the reading date");
+  addCommonOptions(finals, *a, "the last night stayed, but no later than the reading date");
+  verbs.push_back({finals, [a] { return runFinals(*a); }});
+}
+
+} // namespace cbcli
