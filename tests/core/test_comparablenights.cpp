@@ -200,3 +200,35 @@ TEST(ComparableNights, SampleBandMatchesTheDefinitionLevelCurves) {
     }
   }
 }
+
+TEST(ComparableNights, NothingDatedAfterTheReadingDateChangesIt) {
+  auto sample = cb::simulateProperty();
+  const Date t = sample.readingDate - 200;
+  std::vector<Reservation> truncated;
+  for (auto r : sample.reservations) {
+    if (r.bookedOn > t)
+      continue;
+    if (r.cancelledOn && *r.cancelledOn > t) {
+      r.cancelledOn.reset();
+      r.status = cb::ReservationStatus::Booked;
+    }
+    truncated.push_back(r);
+  }
+  ComparableOptions o;
+  o.maxDba = 60;
+  for (Date night : {t + 3, t + 30}) {
+    auto full = ComparableNights::build(sample.reservations, night, t, sample.property,
+                                        HolidayMap{}, {}, o, cb::SeriesBy::Segment, "FLEX");
+    auto cut = ComparableNights::build(truncated, night, t, sample.property, HolidayMap{}, {}, o,
+                                       cb::SeriesBy::Segment, "FLEX");
+    ASSERT_EQ(full.references(), cut.references());
+    for (int dba = 0; dba <= o.maxDba; ++dba) {
+      const auto &a = full.band()[static_cast<std::size_t>(dba)];
+      const auto &b = cut.band()[static_cast<std::size_t>(dba)];
+      ASSERT_EQ(a.median, b.median);
+      ASSERT_EQ(a.low, b.low);
+      ASSERT_EQ(a.high, b.high);
+      ASSERT_EQ(a.medianPct, b.medianPct);
+    }
+  }
+}

@@ -216,3 +216,31 @@ TEST_F(PickupSample, SummaryMatchesOneNightAtATimeAndTotalIsSumOfSeries) {
     }
   }
 }
+
+TEST_F(PickupSample, NothingDatedAfterTheReadingDateChangesIt) {
+  const Date t = sample_->readingDate - 150;
+  std::vector<Reservation> truncated;
+  for (auto r : sample_->reservations) {
+    if (r.bookedOn > t)
+      continue;
+    if (r.cancelledOn && *r.cancelledOn > t) {
+      r.cancelledOn.reset();
+      r.status = cb::ReservationStatus::Booked;
+    }
+    truncated.push_back(r);
+  }
+  ASSERT_LT(truncated.size(), sample_->reservations.size());
+  for (cb::SeriesBy by : {cb::SeriesBy::Total, cb::SeriesBy::Segment, cb::SeriesBy::Channel}) {
+    cb::PickupOptions opt;
+    opt.asOf = t;
+    opt.by = by;
+    opt.lastNight = t + 365;
+    auto full = cb::PickupSummary::build(sample_->reservations, opt);
+    auto cut = cb::PickupSummary::build(truncated, opt);
+    ASSERT_EQ(full.series(), cut.series());
+    for (std::size_t i = 0; i < full.series().size(); ++i)
+      for (std::size_t w = 0; w < full.windows().size(); ++w)
+        for (Date s = full.firstNight(); s <= full.lastNight(); ++s)
+          ASSERT_EQ(full.at(i, s, w), cut.at(i, s, w)) << s.toIso();
+  }
+}
