@@ -15,8 +15,8 @@ namespace cb {
 class Store;
 
 struct HealthOptions {
-  /// A run of at least this many days with no booking made is a gap (default 7: a whole week
-  /// without one booking is not how a hotel in business looks; common practice, no source).
+  /// A run of at least this many days with no booking made is a gap (our own default: a whole
+  /// week without one booking is not how a hotel in business looks).
   int gapDays = 7;
   /// A night at the start of the data counts as incomplete while at least this share of its
   /// rooms is estimated missing (1 %, our own threshold: well below the day-to-day noise of
