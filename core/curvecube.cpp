@@ -27,7 +27,7 @@ std::int64_t rateMicros(double rate) {
 
 // Memory for the cube's large arrays. A 1M-booking cube is ~60 MB that is written once, right
 // after allocation; on 4 KiB pages the first touch of each page (a page fault) cost more than
-// the whole computation in our measurements (0.2 s for 56 MB on the 2-core CI machine, against
+// the whole computation in our measurements (0.2 s for 56 MB on a 2-core virtual machine, against
 // 0.01 s with transparent huge pages). So blocks of 4 MiB and more are 2 MiB-aligned and
 // advised for huge pages where the OS offers it (Linux madvise); smaller ones use the default.
 class BigBlocks final : public std::pmr::memory_resource {

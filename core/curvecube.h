@@ -45,7 +45,11 @@ class CurveCube {
 public:
   /// Builds the cube. Throws AsOfError when options.asOf is after newestActivity(reservations)
   /// ("reading date 2026-11-05 is after the newest booking or cancellation in the data
-  /// (2026-10-31)") or the night range is empty or maxDba < 0.
+  /// (2026-10-31)"), when there are no reservations at all, the night range is empty, maxDba < 0,
+  /// or the cube would exceed 250 million cells. Day uses never count; rows booked after the
+  /// reading date are ignored. Example:
+  /// `auto cube = CurveCube::build(rows, {first, last, 90, SeriesBy::Segment, std::nullopt});`
+  /// `cube.otbRooms(*cube.seriesIndex("CORP"), night, 14)` = corporate rooms 14 days out.
   static CurveCube build(const std::vector<Reservation> &reservations, const CubeOptions &options);
 
   Date firstNight() const { return first_; }

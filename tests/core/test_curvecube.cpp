@@ -267,6 +267,12 @@ TEST(CurveCube, AsOfHidesLaterCellsAndFinals) {
   EXPECT_FALSE(cube.actual(0, s));
   EXPECT_EQ(cube.final(0, d("2026-06-09")), std::nullopt);
   EXPECT_EQ(cube.final(0, d("2026-06-08")), 0);
+
+  // A code first seen in a row booked after the reading date is not a series yet.
+  rs.push_back(res("d", "2026-06-11", "2026-06-12", "2026-06-13", 1, 100, "GRP"));
+  CurveCube bySegment = CurveCube::build(
+      rs, CubeOptions{d("2026-06-08"), d("2026-06-12"), 10, SeriesBy::Segment, d("2026-06-08")});
+  EXPECT_EQ(bySegment.series(), (std::vector<std::string>{"ALL", "CORP"}));
 }
 
 TEST(CurveCube, RefusesReadingDateAfterTheDataAndBadOptions) {
@@ -372,6 +378,7 @@ TEST(CurveCube, AsOfIgnoresEverythingDatedLater) {
     CurveCube fromAll = CurveCube::build(all, o);
     CurveCube fromCut = CurveCube::build(cut, o);
     expectSameKnownFigures(fromAll, fromCut);
+    crossCheck(all, fromAll, 2000, 31u + static_cast<unsigned>(by));
     EXPECT_TRUE(fromAll.final(0, t));
     EXPECT_FALSE(fromAll.final(0, t + 1));
     // The newest data does change figures as of T would have hidden: finals after T appear.
