@@ -167,3 +167,14 @@ TEST_F(CliCurves, BadDatesAndLateReadingDatesExitTwo) {
   EXPECT_EQ(badOut.code, 2) << badOut.out;
   EXPECT_NE(badOut.out.find("cannot write"), std::string::npos) << badOut.out;
 }
+
+TEST(CliCurvesEmpty, StoreWithoutReservationsExitsTwo) {
+  cbtest::TempDir dir;
+  auto store = dir / "empty.curvebench";
+  ASSERT_EQ(run("init " + q(store) + " --name T --capacity 10").code, 0);
+  for (const char *verb : {"curves", "finals"}) {
+    CliRun r = run(std::string(verb) + " " + q(store));
+    EXPECT_EQ(r.code, 2) << r.out;
+    EXPECT_NE(r.out.find("has no reservations"), std::string::npos) << r.out;
+  }
+}
