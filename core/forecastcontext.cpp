@@ -1,0 +1,49 @@
+#include "core/forecastmethod.h"
+
+#include <algorithm>
+
+namespace cb {
+
+ForecastContext::ForecastContext(const CurveCube &cube, std::size_t series, Date asOf,
+                                 const Property &property)
+    : cube_(cube), series_(series), asOf_(asOf), property_(property) {
+  if (asOf > cube.asOf())
+    throw AsOfError("forecast reading date " + asOf.toIso() + " is after the cube's reading date " +
+                    cube.asOf().toIso());
+  if (series >= cube.series().size())
+    throw std::out_of_range("forecast series index out of range");
+}
+
+std::optional<int> ForecastContext::otb(Date night, int dba) const {
+  if (dba < 0 || dba > cube_.maxDba() || night < cube_.firstNight() || night > cube_.lastNight())
+    return std::nullopt;
+  if (night - dba > asOf_)
+    return std::nullopt; // after the reading date: not known yet
+  return cube_.otbRooms(series_, night, dba);
+}
+
+std::optional<int> ForecastContext::otbNow(Date night) const {
+  int h = night - asOf_;
+  if (h < 0)
+    return final(night);
+  return otb(night, std::min(h, cube_.maxDba()));
+}
+
+std::optional<int> ForecastContext::final(Date night) const {
+  if (night > asOf_ || night < cube_.firstNight() || night > cube_.lastNight())
+    return std::nullopt;
+  return cube_.final(series_, night);
+}
+
+const std::vector<double> &ForecastContext::finals() const {
+  if (!finalsReady_) {
+    finals_.clear();
+    Date last = std::min(asOf_, cube_.lastNight());
+    for (Date s = cube_.firstNight(); s <= last; ++s)
+      finals_.push_back(static_cast<double>(cube_.final(series_, s).value_or(0)));
+    finalsReady_ = true;
+  }
+  return finals_;
+}
+
+} // namespace cb

@@ -1,0 +1,90 @@
+// Forecast methods behind one interface (brief section 5): each forecasts Final(s) of a night s
+// in one series, using only the data as it stood on reading date t.
+#pragma once
+
+#include "core/curvecube.h"
+#include "core/reservation.h"
+
+#include <memory>
+#include <optional>
+#include <stdexcept>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace cb {
+
+/// What a method may see: one series of a curve cube, masked at the reading date. The cube may
+/// have been built as of a later date (the backtest builds one cube for all reading dates); the
+/// accessors make any cell dated after `asOf` unreachable, which is what guarantees that no
+/// method looks ahead (a cell OTB(s, s − d) with s − d ≤ t depends only on activity up to t).
+class ForecastContext {
+public:
+  ForecastContext(const CurveCube &cube, std::size_t series, Date asOf, const Property &property);
+
+  Date asOf() const { return asOf_; }
+  std::size_t series() const { return series_; }
+  const Property &property() const { return property_; }
+  const CurveCube &cube() const { return cube_; }
+  Date firstNight() const { return cube_.firstNight(); }
+  int maxDba() const { return cube_.maxDba(); }
+
+  /// OTB(s, s − d) when s − d ≤ asOf and the cell is inside the cube; nullopt otherwise.
+  std::optional<int> otb(Date night, int dba) const;
+  /// OTB(s, t) as of the reading date itself (lead h = s − t, clamped to maxDba).
+  std::optional<int> otbNow(Date night) const;
+  /// Final(s) when s ≤ asOf and inside the cube.
+  std::optional<int> final(Date night) const;
+  /// Finals of nights firstNight … asOf, oldest first (a daily time series; index 0 = firstNight).
+  const std::vector<double> &finals() const;
+
+private:
+  const CurveCube &cube_;
+  std::size_t series_;
+  Date asOf_;
+  const Property &property_;
+  mutable std::vector<double> finals_;
+  mutable bool finalsReady_ = false;
+};
+
+/// Settings of the methods (CLI flags); defaults are those of brief section 5.
+struct MethodOptions {
+  int movingAverageK = 4;          ///< mavg: last k same-weekday finals
+  int references = 8;              ///< pickup: N most recent same-weekday nights already arrived
+  bool seasonalReferences = false; ///< pickup: references around s − 364 ± k weeks instead
+  int seasonalWeeks = 4;           ///< k for seasonal references
+  int paceWindow = 7;              ///< pace-extrap: w days (7 or 15)
+  int maxArOrder = 14;             ///< ar: largest p tried (order chosen by AIC)
+  std::uint64_t seed = 20261201;   ///< mlp: fixed seed
+};
+
+class ForecastMethod {
+public:
+  virtual ~ForecastMethod() = default;
+  /// CLI name, e.g. "pickup-add".
+  virtual std::string name() const = 0;
+  /// One or two plain sentences a revenue manager understands.
+  virtual std::string description() const = 0;
+  /// The formula in plain text, e.g. "F(s) = OTB(s,t) + mean_r [Final(r) − OTB(r, r − h)]".
+  virtual std::string formula() const = 0;
+  /// Fits parameters on the data as of ctx.asOf() (called once per reading date and series,
+  /// before any forecast()).
+  virtual void fit(const ForecastContext &ctx) = 0;
+  /// Forecast of Final(night) for night > ctx.asOf(). Never negative. nullopt when the method has
+  /// too little history (e.g. last-year before a year of data).
+  virtual std::optional<double> forecast(const ForecastContext &ctx, Date night) const = 0;
+};
+
+/// Thrown for an unknown method name or invalid options.
+class MethodError : public std::invalid_argument {
+public:
+  using std::invalid_argument::invalid_argument;
+};
+
+/// Every method's CLI name, in the order of brief section 5 ("auto" is the backtest's own).
+std::vector<std::string> methodNames();
+/// Creates a method by CLI name (not "auto"); throws MethodError.
+std::unique_ptr<ForecastMethod> makeMethod(std::string_view name,
+                                           const MethodOptions &options = {});
+
+} // namespace cb
