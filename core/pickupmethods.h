@@ -6,9 +6,10 @@
 // - pickup-add: F = OTB(s,t) + mean_r [Final(r) − OTB(r, r − h)] over references r ≤ t.
 // - pickup-adv: F = OTB(s,t) + Σ_{j=0}^{h−1} mean_{r ∈ R_j} [OTB(r, r − j) − OTB(r, r − j − 1)],
 //   where R_j are the references chosen among the nights r ≤ t + j (r − j ≤ t: the increment
-//   from j + 1 to j days before arrival is already observed). With recent references, the short
-//   leads thus use nights that have not arrived yet; when every R_j is the same set of arrived
-//   nights the chain telescopes to pickup-add.
+//   from j + 1 to j days before arrival is already observed). With recent references R_j holds
+//   the N newest same-weekday nights up to t + j, so every increment j ≥ 1 may come from nights
+//   that have not arrived by t (at weekly references, once h ≥ 8); when every R_j is the same
+//   set of arrived nights the chain telescopes to pickup-add.
 // - pickup-mult: F = OTB(s,t) × Σ_r Final(r) / Σ_r OTB(r, r − h) (references as pickup-add);
 //   pickup-add when Σ_r OTB(r, r − h) = 0.
 // - pace-extrap: F = OTB(s,t) + h × (OTB(s,t) − OTB(s, t − w)) / w, w = options.paceWindow.
