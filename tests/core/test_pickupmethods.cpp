@@ -333,6 +333,36 @@ TEST(PickupMethods, NoLookAhead) {
   }
 }
 
+TEST(PickupMethods, SeasonalReferencesOnTheSample) {
+  const Date t = d("2026-02-03");
+  CurveCube cube =
+      CurveCube::build(sample().reservations,
+                       CubeOptions{d("2023-11-01"), t + 200, 120, SeriesBy::Total, std::nullopt});
+  ForecastContext ctx(cube, 0, t, sample().property);
+  MethodOptions o;
+  o.seasonalReferences = true; // seasonalWeeks 4: nine nights s − 364 + 7i, i = −4 … 4
+  auto add = cb::makePickupMethod("pickup-add", o);
+  auto adv = cb::makePickupMethod("pickup-adv", o);
+  auto mult = cb::makePickupMethod("pickup-mult", o);
+  for (int h : {1, 7, 30, 90, 120}) {
+    const Date s = t + h;
+    // The definition read straight from the cube: every reference has arrived by t here
+    // (s − 364 + 28 ≤ t for h ≤ 336).
+    double pickup = 0, finals = 0, onBooks = 0;
+    for (int i = -4; i <= 4; ++i) {
+      const Date r = s - 364 + 7 * i;
+      pickup += *cube.final(0, r) - cube.otbRooms(0, r, h);
+      finals += *cube.final(0, r);
+      onBooks += cube.otbRooms(0, r, h);
+    }
+    const double now = cube.otbRooms(0, s, h);
+    EXPECT_NEAR(*add->forecast(ctx, s), std::max(0.0, now + pickup / 9), 1e-9) << h;
+    EXPECT_NEAR(*mult->forecast(ctx, s), std::max(0.0, now * finals / onBooks), 1e-9) << h;
+    // With every reference arrived, each R_j is the same nine nights: the chain telescopes.
+    EXPECT_NEAR(*adv->forecast(ctx, s), *add->forecast(ctx, s), 1e-9) << h;
+  }
+}
+
 // ---- The open city dataset: Antonio, de Almeida & Nunes, "Hotel booking demand datasets",
 // Data in Brief 22 (2019) 41–49, doi:10.1016/j.dib.2018.11.126, CC BY 4.0. ----
 
