@@ -302,3 +302,38 @@ TEST(CombinedMethods, TooLittleHistoryGivesNoForecast) {
     EXPECT_FALSE(m->forecast(ctx, t + 7)) << name;
   }
 }
+
+TEST(CombinedMethods, SampleAccuracyBeatsBooksOnHand) {
+  // Sixty reading dates through spring 2026, leads 7 and 30, the total. The floor every method
+  // must clear: "the books on hand are the final" (no pickup at all), which at lead 30 misses by
+  // the whole pickup still to come. Printed beside pickup-add for the record, not asserted
+  // against it (which wins on this sample is a finding, not a requirement).
+  const auto &cube = cubes().newest;
+  const Date first = d("2026-03-01");
+  for (int h : {7, 30}) {
+    std::map<std::string, double> mae;
+    double maeBooks = 0;
+    int n = 0;
+    for (int day = 0; day < 60; ++day) {
+      const Date t = first + day;
+      ForecastContext ctx(cube, 0, t, sample().property);
+      const double actual = *cube.final(0, t + h);
+      maeBooks += std::abs(*ctx.otbNow(t + h) - actual);
+      for (const char *name : {"regress", "blend", "mlp", "pickup-add"}) {
+        auto m = cb::makeMethod(name);
+        m->fit(ctx);
+        mae[name] += std::abs(*m->forecast(ctx, t + h) - actual);
+      }
+      ++n;
+    }
+    maeBooks /= n;
+    std::printf("[ accuracy ] lead %d: MAE books-on-hand %.2f", h, maeBooks);
+    for (auto &[name, v] : mae) {
+      v /= n;
+      std::printf(", %s %.2f", name.c_str(), v);
+    }
+    std::printf("\n");
+    for (const char *name : {"regress", "blend", "mlp"})
+      EXPECT_LT(mae[name], maeBooks) << name << " at lead " << h;
+  }
+}
