@@ -238,7 +238,7 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
         }
       }
     }
-    for (std::size_t k = 0; k < rows.size(); ++k) {
+    for (std::size_t k = 0; k < rows.size() && options.withBands; ++k) {
       BacktestRow &r = rows[k];
       if (auto b = bands.band(r.series, bandMethod[k], options.buckets.bucketOf(r.lead), t,
                               r.forecast)) {

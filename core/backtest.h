@@ -49,7 +49,8 @@ struct BacktestOptions {
   /// Also run the reading dates of the `autoSelect.windowDays + max lead` days before `from`
   /// (not reported), so that auto and the bands have known errors from the first reading date on.
   bool warmUp = true;
-  unsigned threads = 0;          ///< 0 = every core
+  bool withBands = true; ///< false leaves BacktestRow::lo / hi empty (saves the quantile work)
+  unsigned threads = 0;  ///< 0 = every core
   ProgressFn progress = nullptr; ///< (done, total) in reading dates; false cancels
   void *progressContext = nullptr;
 };

@@ -159,9 +159,27 @@ UPDATE import_log SET outcome = CASE WHEN added + updated + unchanged > 0 THEN '
                                      ELSE 'failed' END;
 )sql";
 
+// The values each stored forecast run showed, one row per night and series, so the accuracy of
+// what was shown can be measured once the nights are final (core/forecastrun.h).
+constexpr std::string_view kMigration4 = R"sql(
+CREATE TABLE forecast_values (
+  run_id INTEGER NOT NULL REFERENCES forecast_runs (id) ON DELETE CASCADE,
+  night TEXT NOT NULL,
+  series TEXT NOT NULL,
+  lead INTEGER NOT NULL,
+  otb INTEGER NOT NULL,
+  forecast REAL NOT NULL,
+  lo REAL,
+  hi REAL,
+  method TEXT NOT NULL,
+  PRIMARY KEY (run_id, series, night)
+);
+CREATE INDEX forecast_values_night ON forecast_values (night);
+)sql";
+
 // Index i migrates schema version i to i + 1; the size ties the list to kSchemaVersion.
 constexpr std::array<std::string_view, Store::kSchemaVersion> kMigrations = {
-    kMigration1, kMigration2, kMigration3};
+    kMigration1, kMigration2, kMigration3, kMigration4};
 
 constexpr std::string_view kReservationColumns =
     "id, status, booked_on, cancelled_on, arrival, departure, rooms, room_type, segment, channel, "

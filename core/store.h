@@ -62,7 +62,7 @@ struct StoreSummary {
 /// Every write runs inside a transaction; a batch of writes shares one via Transaction.
 class Store {
 public:
-  static constexpr int kSchemaVersion = 3;
+  static constexpr int kSchemaVersion = 4;
 
   /// Creates a new store file; throws StoreError if the file exists.
   static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
@@ -132,6 +132,9 @@ public:
 
   /// Test hook: the store's own connection (its pragmas are per connection).
   SqliteDb &sqliteForTesting() { return *db_; }
+  /// The connection, for the store's own record classes kept in other files (forecast runs and
+  /// overrides, core/forecastrun.h). Same thread rule as the store.
+  SqliteDb &database() { return *db_; }
 
 private:
   Store(std::filesystem::path path, std::unique_ptr<SqliteDb> db);

@@ -1,0 +1,87 @@
+// A forecast as shown to the user (a "forecast run"): per future night and series the point
+// forecast, its error band and the method, stored with the method, parameters, data version and
+// reading date so its accuracy can be measured later; and the expert overrides of nights.
+#pragma once
+
+#include "core/autoselect.h"
+#include "core/curvecube.h"
+#include "core/errorbands.h"
+#include "core/finding.h"
+#include "core/forecastmethod.h"
+
+#include <cstdint>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace cb {
+
+class Store;
+
+/// An expert's value for a night (brief section 3), kept in the forecast_overrides table.
+struct ForecastOverride {
+  std::int64_t id = 0;
+  Date night;
+  std::string segment; ///< empty = the whole hotel (series "ALL")
+  double value = 0;
+  std::string reason, author;
+  std::string createdAt; ///< UTC "YYYY-MM-DDTHH:MM:SSZ"; set by addOverride() when empty
+};
+
+/// Stores an override (the segment row is created if missing) and returns its id.
+std::int64_t addOverride(Store &store, ForecastOverride o);
+/// Every override, ordered by night, then id.
+std::vector<ForecastOverride> overrides(Store &store);
+
+/// One forecast value of a run.
+struct ForecastValue {
+  Date night;
+  std::string series;
+  int lead = 0;
+  int otb = 0; ///< OTB(s, t) at the reading date
+  double forecast = 0;
+  std::optional<double> lo, hi; ///< error band; nullopt without enough backtest errors
+  std::string method;           ///< the method that made it (auto's choice for "auto")
+};
+
+struct ForecastRequest {
+  Date asOf;
+  int horizon = 90;
+  std::string method = "auto"; ///< a name of methodNames() or "auto"
+  SeriesBy by = SeriesBy::Total;
+  MethodOptions methodOptions;
+  AutoSelectOptions autoSelect;
+  BandOptions bands;
+  unsigned threads = 0; ///< 0 = every core
+  ProgressFn progress = nullptr;
+  void *progressContext = nullptr;
+};
+
+class ForecastRun {
+public:
+  std::int64_t id = 0;           ///< 0 until saved
+  std::string createdAt;         ///< UTC
+  std::string method;            ///< as requested ("auto" or a method name)
+  std::string parameters = "{}"; ///< JSON: options, lead buckets and auto's evidence
+  std::string dataVersion;
+  Date readingDate;
+  std::vector<ForecastValue> values; ///< ordered by night, then series
+  bool cancelled = false;
+
+  /// Forecasts nights asOf + 1 … asOf + horizon from the data as of asOf. Bands and auto's
+  /// choice come from a backtest of the last 8 weeks of outcomes before asOf: reading dates
+  /// asOf − windowDays − horizon … asOf − 1, every lead 1 … horizon, nights ≤ asOf only; the
+  /// band of a lead uses the errors of its lead bucket (LeadBuckets defaults). Throws AsOfError
+  /// when asOf is after the newest activity, MethodError for an unknown method.
+  static ForecastRun compute(const std::vector<Reservation> &reservations, const Property &property,
+                             const ForecastRequest &request);
+
+  /// "import 7, 79330 reservations": the newest written import and the reservation count.
+  static std::string dataVersionOf(Store &store);
+  /// Saves the run and its values (one transaction); sets id and, when empty, createdAt.
+  std::int64_t save(Store &store);
+  /// Every stored run with its values, oldest first.
+  static std::vector<ForecastRun> load(Store &store);
+};
+
+} // namespace cb

@@ -1,0 +1,145 @@
+// Forecast runs and overrides: a naive forecast on a hand-made store with exact values and
+// bands, auto's evidence in the stored parameters, and the store round trip.
+#include "testsupport.h"
+
+#include "core/forecastrun.h"
+#include "core/store.h"
+
+#include <nlohmann/json.hpp>
+
+using cb::Date;
+
+namespace {
+
+Date d(int y, unsigned m, unsigned day) { return Date::fromYmd(y, m, day); }
+
+/// Every night of Jan–Mar 2026: 2 CORP rooms booked 5 days ahead and 1 LEIS room booked the day
+/// before, so Final = 3 and OTB(s, s − h) = 3 at h = 1, 2 at h = 2…5, 0 beyond.
+std::unique_ptr<cb::Store> handStore(const cbtest::TempDir &dir) {
+  cb::Property p;
+  p.name = "Test";
+  p.capacity = 10;
+  auto store = cb::Store::create(dir / "t.curvebench", p);
+  cb::Store::Transaction tx(*store);
+  for (Date s = d(2026, 1, 1); s <= d(2026, 3, 31); ++s) {
+    cb::Reservation a;
+    a.id = "A" + s.toIso();
+    a.bookedOn = s - 5;
+    a.arrival = s;
+    a.departure = s + 1;
+    a.rooms = 2;
+    a.segment = "CORP";
+    cb::Reservation b = a;
+    b.id = "B" + s.toIso();
+    b.bookedOn = s - 1;
+    b.rooms = 1;
+    b.segment = "LEIS";
+    store->upsertReservation(a, 0);
+    store->upsertReservation(b, 0);
+  }
+  tx.commit();
+  return store;
+}
+
+} // namespace
+
+TEST(ForecastRun, NaiveValuesAndBandsThenStoredAndLoaded) {
+  cbtest::TempDir dir;
+  auto store = handStore(dir);
+  cb::ForecastRequest req;
+  req.asOf = d(2026, 3, 1);
+  req.horizon = 7;
+  req.method = "naive";
+  cb::ForecastRun run = cb::ForecastRun::compute(store->reservations(), store->property(), req);
+  ASSERT_EQ(run.values.size(), 7u);
+  const int otb[] = {3, 2, 2, 2, 2, 0, 0}; // h = 1 … 7
+  for (int h = 1; h <= 7; ++h) {
+    const cb::ForecastValue &v = run.values[static_cast<std::size_t>(h - 1)];
+    EXPECT_EQ(v.night, req.asOf + h);
+    EXPECT_EQ(v.series, "ALL");
+    EXPECT_EQ(v.lead, h);
+    EXPECT_EQ(v.otb, otb[h - 1]);
+    EXPECT_DOUBLE_EQ(v.forecast, 3.0); // the last same-weekday final
+    EXPECT_EQ(v.method, "naive");
+    // Every past naive error was 0, so the band is [3, 3].
+    ASSERT_TRUE(v.lo && v.hi) << h;
+    EXPECT_DOUBLE_EQ(*v.lo, 3.0);
+    EXPECT_DOUBLE_EQ(*v.hi, 3.0);
+  }
+  run.dataVersion = cb::ForecastRun::dataVersionOf(*store);
+  EXPECT_EQ(run.dataVersion, "import 0, 180 reservations");
+  const std::int64_t id = run.save(*store);
+  EXPECT_GT(id, 0);
+  const auto runs = cb::ForecastRun::load(*store);
+  ASSERT_EQ(runs.size(), 1u);
+  EXPECT_EQ(runs[0].id, id);
+  EXPECT_EQ(runs[0].method, "naive");
+  EXPECT_EQ(runs[0].readingDate, req.asOf);
+  EXPECT_EQ(runs[0].createdAt.size(), 20u); // YYYY-MM-DDTHH:MM:SSZ
+  EXPECT_EQ(nlohmann::json::parse(runs[0].parameters)["options"]["horizon"], 7);
+  ASSERT_EQ(runs[0].values.size(), 7u);
+  EXPECT_EQ(runs[0].values[5].otb, 0);
+  EXPECT_DOUBLE_EQ(*runs[0].values[6].hi, 3.0);
+}
+
+TEST(ForecastRun, AutoStoresItsChoiceAndEvidence) {
+  cbtest::TempDir dir;
+  auto store = handStore(dir);
+  cb::ForecastRequest req;
+  req.asOf = d(2026, 3, 10);
+  req.horizon = 3;
+  req.by = cb::SeriesBy::Segment;
+  const cb::ForecastRun run =
+      cb::ForecastRun::compute(store->reservations(), store->property(), req);
+  EXPECT_EQ(run.values.size(), 9u); // 3 nights × ALL, CORP, LEIS
+  const auto params = nlohmann::json::parse(run.parameters);
+  ASSERT_TRUE(params.contains("auto"));
+  // Lead buckets 1 and 2–3 for each of the 3 series.
+  ASSERT_EQ(params["auto"].size(), 6u);
+  const auto &first = params["auto"][0];
+  EXPECT_EQ(first["series"], "ALL");
+  EXPECT_EQ(first["leads"], "1");
+  ASSERT_FALSE(first["evidence"].empty());
+  EXPECT_EQ(first["chosen"], first["evidence"][0]["method"]);
+  for (const auto &v : run.values)
+    EXPECT_NEAR(v.forecast,
+                v.series == "ALL"    ? 3.0
+                : v.series == "CORP" ? 2.0
+                                     : 1.0,
+                1.0)
+        << v.method;
+  EXPECT_THROW(
+      [&] {
+        cb::ForecastRequest late = req;
+        late.asOf = d(2026, 4, 1);
+        (void)cb::ForecastRun::compute(store->reservations(), store->property(), late);
+      }(),
+      cb::AsOfError);
+}
+
+TEST(ForecastRun, OverridesAreStoredWithReasonAuthorAndTime) {
+  cbtest::TempDir dir;
+  auto store = handStore(dir);
+  cb::ForecastOverride o;
+  o.night = d(2026, 4, 2);
+  o.segment = "GRP";
+  o.value = 40;
+  o.reason = "congress";
+  o.author = "ana";
+  const std::int64_t id = cb::addOverride(*store, o);
+  o.segment.clear();
+  o.night = d(2026, 4, 1);
+  o.createdAt = "2026-03-30T08:00:00Z";
+  cb::addOverride(*store, o);
+  const auto all = cb::overrides(*store);
+  ASSERT_EQ(all.size(), 2u);
+  EXPECT_EQ(all[0].night, d(2026, 4, 1));
+  EXPECT_EQ(all[0].segment, "");
+  EXPECT_EQ(all[0].createdAt, "2026-03-30T08:00:00Z");
+  EXPECT_EQ(all[1].id, id);
+  EXPECT_EQ(all[1].segment, "GRP");
+  EXPECT_DOUBLE_EQ(all[1].value, 40.0);
+  EXPECT_EQ(all[1].reason, "congress");
+  EXPECT_EQ(all[1].author, "ana");
+  EXPECT_EQ(all[1].createdAt.size(), 20u);
+}
