@@ -26,7 +26,7 @@ std::optional<int> ForecastContext::otbNow(Date night) const {
   int h = night - asOf_;
   if (h < 0)
     return final(night);
-  return otb(night, std::min(h, cube_.maxDba()));
+  return otb(night, h);
 }
 
 std::optional<int> ForecastContext::final(Date night) const {

@@ -31,7 +31,8 @@ public:
 
   /// OTB(s, s − d) when s − d ≤ asOf and the cell is inside the cube; nullopt otherwise.
   std::optional<int> otb(Date night, int dba) const;
-  /// OTB(s, t) as of the reading date itself (lead h = s − t, clamped to maxDba).
+  /// OTB(s, t) as of the reading date itself (lead h = s − t); nullopt when h > maxDba, as the
+  /// cube's earliest reading of s is s − maxDba. Build the cube with maxDba ≥ the longest lead.
   std::optional<int> otbNow(Date night) const;
   /// Final(s) when s ≤ asOf and inside the cube.
   std::optional<int> final(Date night) const;
