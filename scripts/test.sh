@@ -18,7 +18,7 @@ QT_QPA_PLATFORM=offscreen ctest --test-dir "$build" --output-on-failure -j "$job
 bash scripts/check-format.sh
 
 if [[ "${CURVEBENCH_SANITIZE_RUN:-0}" == "1" ]]; then
-  cmake -S . -B "$build-asan" -G Ninja -DCMAKE_BUILD_TYPE=Debug -DCURVEBENCH_SANITIZE=ON \
+  cmake -S . -B "$build-asan" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEBENCH_SANITIZE=ON \
     -DCURVEBENCH_BUILD_GUI=OFF -DCURVEBENCH_WERROR=ON
   cmake --build "$build-asan" -j "$jobs"
   ctest --test-dir "$build-asan" --output-on-failure -j "$jobs"
