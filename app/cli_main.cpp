@@ -16,6 +16,7 @@ int main(int argc, char **argv) {
   cbcli::addHealthVerbs(app, verbs);
   cbcli::addCurveVerbs(app, verbs);
   cbcli::addPaceVerbs(app, verbs);
+  cbcli::addForecastVerbs(app, verbs);
 
   try {
     app.parse(argc, argv);

@@ -1,0 +1,130 @@
+// End-to-end runs of `curvebench forecast`, `backtest` and `override` on a tiny hand-made store
+// whose every expected value is worked out in the comments (brief sections 4 and 5).
+#include "testsupport.h"
+
+#include "core/store.h"
+
+#include <cstdio>
+#include <sys/wait.h>
+
+namespace {
+
+struct CliRun {
+  int code = -1;
+  std::string out; ///< stdout
+  std::string err; ///< stderr
+};
+
+CliRun run(const std::string &args, const cbtest::TempDir &dir) {
+  const auto errFile = dir / "stderr.txt";
+  std::string cmd =
+      std::string("\"") + CURVEBENCH_CLI + "\" " + args + " 2>\"" + errFile.string() + "\"";
+  CliRun r;
+  FILE *p = popen(cmd.c_str(), "r");
+  if (!p)
+    return r;
+  char buf[4096];
+  std::size_t n;
+  while ((n = fread(buf, 1, sizeof buf, p)) > 0)
+    r.out.append(buf, n);
+  int status = pclose(p);
+  r.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  r.err = cbtest::readFile(errFile);
+  return r;
+}
+
+std::string q(const std::filesystem::path &p) { return "\"" + p.string() + "\""; }
+
+/// Every night of Jan–Mar 2026: 2 CORP rooms booked 5 days ahead and 1 LEIS room booked the day
+/// before. So Final = 3 and OTB(s, s − h) = 3 at h = 1, 2 at h = 2…5, 0 at h ≥ 6.
+class CliForecast : public ::testing::Test {
+protected:
+  void SetUp() override {
+    cb::Property p;
+    p.name = "Test";
+    p.capacity = 10;
+    auto store = cb::Store::create(store_, p);
+    cb::Store::Transaction tx(*store);
+    for (cb::Date s = cb::Date::fromYmd(2026, 1, 1); s <= cb::Date::fromYmd(2026, 3, 31); ++s) {
+      cb::Reservation a;
+      a.id = "A" + s.toIso();
+      a.bookedOn = s - 5;
+      a.arrival = s;
+      a.departure = s + 1;
+      a.rooms = 2;
+      a.segment = "CORP";
+      cb::Reservation b = a;
+      b.id = "B" + s.toIso();
+      b.bookedOn = s - 1;
+      b.rooms = 1;
+      b.segment = "LEIS";
+      store->upsertReservation(a, 0);
+      store->upsertReservation(b, 0);
+    }
+    tx.commit();
+  }
+  cbtest::TempDir dir_;
+  std::filesystem::path store_ = dir_ / "t.curvebench";
+};
+
+} // namespace
+
+TEST_F(CliForecast, NaiveForecastWithBands) {
+  // naive = the last same-weekday final = 3; every past naive error was 0, so the band is [3, 3].
+  const CliRun r =
+      run("forecast " + q(store_) + " --as-of 2026-03-01 --horizon 3 --method naive", dir_);
+  ASSERT_EQ(r.code, 0) << r.err;
+  EXPECT_EQ(r.out, "stay_date,series,h,otb,forecast,lo,hi,method\n"
+                   "2026-03-02,ALL,1,3,3.00,3.00,3.00,naive\n"
+                   "2026-03-03,ALL,2,2,3.00,3.00,3.00,naive\n"
+                   "2026-03-04,ALL,3,2,3.00,3.00,3.00,naive\n");
+  EXPECT_NE(r.err.find("forecast run 1 stored"), std::string::npos) << r.err;
+}
+
+TEST_F(CliForecast, PickupBacktestDetailSummaryAndOverride) {
+  // An override of 4 rooms for the whole hotel on 02-02 (final 3).
+  const CliRun o = run("override " + q(store_) +
+                           " --night 2026-02-02 --value 4 --reason \"trade fair\" --author ana",
+                       dir_);
+  ASSERT_EQ(o.code, 0) << o.err;
+  EXPECT_EQ(o.out, "override 1 stored: 2026-02-02 ALL = 4\n");
+  // pickup-add: OTB(s,t) + mean_r [Final(r) − OTB(r, r − h)] = 3 + 0 at h = 1, 0 + 3 at h = 7.
+  const auto detail = dir_ / "detail.csv";
+  const CliRun r = run("backtest " + q(store_) +
+                           " --from 2026-02-01 --to 2026-02-02 --leads 7,1 --methods pickup-add"
+                           " --detail " +
+                           q(detail),
+                       dir_);
+  ASSERT_EQ(r.code, 0) << r.err;
+  EXPECT_EQ(cbtest::readFile(detail), "stay_date,reading_date,series,h,method,forecast,final\n"
+                                      "2026-02-02,2026-02-01,ALL,1,pickup-add,3.00,3\n"
+                                      "2026-02-08,2026-02-01,ALL,7,pickup-add,3.00,3\n"
+                                      "2026-02-03,2026-02-02,ALL,1,pickup-add,3.00,3\n"
+                                      "2026-02-09,2026-02-02,ALL,7,pickup-add,3.00,3\n");
+  // Finals never change: the lag-7 naive scale is 0, so MASE is empty. The warm-up errors are
+  // all 0, so each band is [3, 3] and holds the final. The override on 02-02 (lead 1 only):
+  // fva = |3 − 3| − |4 − 3| = −1.
+  EXPECT_EQ(r.out, "series,method,h,count,mae,rmse,mape,wape,bias,mase,coverage,overrides,fva\n"
+                   "ALL,pickup-add,1,2,0.000,0.000,0.000,0.000,0.000,,1.000,1,-1.000\n"
+                   "ALL,pickup-add,7,2,0.000,0.000,0.000,0.000,0.000,,1.000,0,\n");
+}
+
+TEST_F(CliForecast, HelpListsEveryMethodAndBadInputIsRefused) {
+  const CliRun h = run("backtest --help", dir_);
+  ASSERT_EQ(h.code, 0);
+  for (const char *name :
+       {"naive", "last-year", "mavg", "ses", "holt-winters", "ar", "pickup-add", "pickup-adv",
+        "pickup-mult", "pace-extrap", "regress", "blend", "mlp", "auto"})
+    EXPECT_NE(h.out.find(std::string("  ") + name + " "), std::string::npos) << name;
+  const CliRun bad = run("forecast " + q(store_) + " --as-of 2026-03-01 --method nope", dir_);
+  EXPECT_EQ(bad.code, 2);
+  EXPECT_NE(bad.err.find("unknown forecast method \"nope\""), std::string::npos) << bad.err;
+  const CliRun late = run("forecast " + q(store_) + " --as-of 2026-05-01", dir_);
+  EXPECT_EQ(late.code, 2);
+  EXPECT_NE(late.err.find("after the newest booking"), std::string::npos) << late.err;
+  const CliRun leads = run("backtest " + q(store_) +
+                               " --from 2026-02-01 --to 2026-02-02 "
+                               "--leads 1,x",
+                           dir_);
+  EXPECT_EQ(leads.code, 2);
+}
