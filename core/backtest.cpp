@@ -117,7 +117,8 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
   // Reading dates: the reported window, preceded by the warm-up on the same step grid.
   Date start = options.from;
   if (options.warmUp) {
-    const int back = options.autoSelect.windowDays + leads.back();
+    const int back =
+        std::max(options.autoSelect.windowDays, options.bands.windowDays) + leads.back();
     start = options.from - ((back + options.step - 1) / options.step) * options.step;
   }
   while (start < cube.firstNight() && start < options.from)

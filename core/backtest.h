@@ -46,7 +46,8 @@ struct BacktestOptions {
   LeadBuckets buckets;
   AutoSelectOptions autoSelect;
   BandOptions bands;
-  /// Also run the reading dates of the `autoSelect.windowDays + max lead` days before `from`
+  /// Also run the reading dates of the `max(autoSelect.windowDays, bands.windowDays) + max lead`
+  /// days before `from`
   /// (not reported), so that auto and the bands have known errors from the first reading date on.
   bool warmUp = true;
   bool withBands = true; ///< false leaves BacktestRow::lo / hi empty (saves the quantile work)

@@ -1,8 +1,8 @@
 // A rolling-origin backtest over one year of reading dates with every method and auto on the open
 // city dataset: prints the time taken, MAE and MAPE by lead per method, and the coverage of the
 // 80 % error band (10 %–90 % type-7 quantiles of the errors known at each reading date).
-// Usage: curvebench_bench_backtest [FROM TO] (reading dates; default 2016-06-01 2017-05-31, so
-// that every night up to lead 90 is final before the data ends on 2017-08-31).
+// Usage: curvebench_bench_backtest [FROM TO [BAND_WINDOW_DAYS]] (reading dates; default 2016-06-01
+// 2017-05-31, so that every night up to lead 90 is final before the data ends on 2017-08-31).
 #include "core/backtest.h"
 #include "core/reservationimporter.h"
 #include "core/store.h"
@@ -64,10 +64,12 @@ int main(int argc, char **argv) {
   cb::BacktestOptions o;
   o.from = cb::Date::fromYmd(2016, 6, 1);
   o.to = cb::Date::fromYmd(2017, 5, 31);
-  if (argc == 3) {
+  if (argc >= 3) {
     o.from = *cb::Date::parseIso(argv[1]);
     o.to = *cb::Date::parseIso(argv[2]);
   }
+  if (argc >= 4) // band window in days (default 56, the auto-selection window)
+    o.bands.windowDays = std::atoi(argv[3]);
   o.methods = cb::methodNames();
   o.methods.push_back("auto");
   o.progress = progress;
@@ -80,9 +82,10 @@ int main(int argc, char **argv) {
   const auto summary = cb::Backtest::summarize(r);
   std::fprintf(stderr, "\n");
   fmt::print("open city dataset: {} reservations; reading dates {} … {} (plus {} warm-up days); "
-             "{} forecasts with outcomes\n",
-             rows.size(), o.from.toIso(), o.to.toIso(), o.autoSelect.windowDays + 90,
-             r.rows.size());
+             "{} forecasts with outcomes; band window {} days\n",
+             rows.size(), o.from.toIso(), o.to.toIso(),
+             std::max(o.autoSelect.windowDays, o.bands.windowDays) + 90, r.rows.size(),
+             o.bands.windowDays);
   fmt::print("cube {:.2f} s, backtest {:.1f} s ({} threads)\n\n",
              std::chrono::duration<double>(t1 - t0).count(),
              std::chrono::duration<double>(t2 - t1).count(), std::thread::hardware_concurrency());
