@@ -21,10 +21,10 @@ struct Verb {
 };
 using VerbList = std::vector<Verb>;
 
-void addStoreVerbs(CLI::App &app, VerbList &verbs);  // init, import, info, sample (cli_store.cpp)
-void addHealthVerbs(CLI::App &app, VerbList &verbs); // health (cli_health.cpp)
-void addCurveVerbs(CLI::App &app, VerbList &verbs);  // curves, finals (cli_curves.cpp)
-void addPaceVerbs(CLI::App &app, VerbList &verbs);   // pace (cli_pace.cpp)
+void addStoreVerbs(CLI::App &app, VerbList &verbs);    // init, import, info, sample (cli_store.cpp)
+void addHealthVerbs(CLI::App &app, VerbList &verbs);   // health (cli_health.cpp)
+void addCurveVerbs(CLI::App &app, VerbList &verbs);    // curves, finals (cli_curves.cpp)
+void addPaceVerbs(CLI::App &app, VerbList &verbs);     // pace (cli_pace.cpp)
 void addForecastVerbs(CLI::App &app, VerbList &verbs); // forecast, backtest, override
 
 } // namespace cbcli
