@@ -117,8 +117,12 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
   // Reading dates: the reported window, preceded by the warm-up on the same step grid.
   Date start = options.from;
   if (options.warmUp) {
-    const int back =
-        std::max(options.autoSelect.windowDays, options.bands.windowDays) + leads.back();
+    // Calibrated bands score forecasts whose nights lie up to calibrationDays back; each of
+    // those needs its own base band, from the windowDays of nights before its reading date.
+    const int bandBack =
+        options.bands.windowDays +
+        (options.bands.calibrationDays > 0 ? options.bands.calibrationDays + leads.back() : 0);
+    const int back = std::max(options.autoSelect.windowDays, bandBack) + leads.back();
     start = options.from - ((back + options.step - 1) / options.step) * options.step;
   }
   while (start < cube.firstNight() && start < options.from)

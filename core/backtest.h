@@ -46,9 +46,10 @@ struct BacktestOptions {
   LeadBuckets buckets;
   AutoSelectOptions autoSelect;
   BandOptions bands;
-  /// Also run the reading dates of the `max(autoSelect.windowDays, bands.windowDays) + max lead`
-  /// days before `from`
-  /// (not reported), so that auto and the bands have known errors from the first reading date on.
+  /// Also run the reading dates of the `max(autoSelect.windowDays, bands.windowDays +
+  /// bands.calibrationDays + max lead) + max lead` days before `from` (not reported; without
+  /// calibration the middle term is bands.windowDays), so that auto and the calibrated bands have
+  /// known errors from the first reading date on.
   bool warmUp = true;
   bool withBands = true; ///< false leaves BacktestRow::lo / hi empty (saves the quantile work)
   unsigned threads = 0;  ///< 0 = every core

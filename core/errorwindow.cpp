@@ -43,6 +43,8 @@ ErrorWindow::ErrorWindow(std::span<const BacktestRow> rows, LeadBuckets buckets)
 
 ErrorWindow::~ErrorWindow() = default;
 
+std::span<const BacktestRow> ErrorWindow::all() const { return rows_; }
+
 std::span<const BacktestRow> ErrorWindow::rows(std::uint32_t series, std::uint32_t method,
                                                int bucket, Date firstNight, Date lastNight) const {
   if (lastNight < firstNight)

@@ -38,6 +38,8 @@ public:
   ErrorWindow(std::span<const BacktestRow> rows, LeadBuckets buckets);
   ~ErrorWindow();
   const LeadBuckets &buckets() const { return buckets_; }
+  /// Every row, in the order rows() returns them from (spans from rows() point into this one).
+  std::span<const BacktestRow> all() const;
   /// Rows of (series, method, bucket) with firstNight ≤ night ≤ lastNight, ordered by night.
   std::span<const BacktestRow> rows(std::uint32_t series, std::uint32_t method, int bucket,
                                     Date firstNight, Date lastNight) const;

@@ -1,7 +1,9 @@
 // A rolling-origin backtest over one year of reading dates with every method and auto on the open
 // city dataset: prints the time taken, MAE and MAPE by lead per method, and the coverage of the
-// 80 % error band (10 %–90 % type-7 quantiles of the errors known at each reading date).
-// Usage: curvebench_bench_backtest [FROM TO [BAND_WINDOW_DAYS]] (reading dates; default 2016-06-01
+// 80 % error band (10 %–90 % type-7 quantiles of the errors known at each reading date, conformally
+// calibrated on the forecasts whose outcomes are known).
+// Usage: curvebench_bench_backtest [FROM TO [BAND_WINDOW_DAYS [CALIBRATION_DAYS]]] (reading dates;
+// CALIBRATION_DAYS 0 turns the calibration off; default 2016-06-01
 // 2017-05-31, so that every night up to lead 90 is final before the data ends on 2017-08-31).
 #include "core/backtest.h"
 #include "core/reservationimporter.h"
@@ -70,6 +72,8 @@ int main(int argc, char **argv) {
   }
   if (argc >= 4) // band window in days (default 56, the auto-selection window)
     o.bands.windowDays = std::atoi(argv[3]);
+  if (argc >= 5) // conformal calibration window in days (default 365, 0 = off)
+    o.bands.calibrationDays = std::atoi(argv[4]);
   o.methods = cb::methodNames();
   o.methods.push_back("auto");
   o.progress = progress;
@@ -82,10 +86,13 @@ int main(int argc, char **argv) {
   const auto summary = cb::Backtest::summarize(r);
   std::fprintf(stderr, "\n");
   fmt::print("open city dataset: {} reservations; reading dates {} … {} (plus {} warm-up days); "
-             "{} forecasts with outcomes; band window {} days\n",
+             "{} forecasts with outcomes; band window {} days, calibration window {} days\n",
              rows.size(), o.from.toIso(), o.to.toIso(),
-             std::max(o.autoSelect.windowDays, o.bands.windowDays) + 90, r.rows.size(),
-             o.bands.windowDays);
+             std::max(o.autoSelect.windowDays,
+                      o.bands.windowDays +
+                          (o.bands.calibrationDays > 0 ? o.bands.calibrationDays + 90 : 0)) +
+                 90,
+             r.rows.size(), o.bands.windowDays, o.bands.calibrationDays);
   fmt::print("cube {:.2f} s, backtest {:.1f} s ({} threads)\n\n",
              std::chrono::duration<double>(t1 - t0).count(),
              std::chrono::duration<double>(t2 - t1).count(), std::thread::hardware_concurrency());

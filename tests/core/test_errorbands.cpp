@@ -1,5 +1,6 @@
 // Error bands: type-7 quantiles of residuals added to the forecast, floored at 0, only from
-// errors known at the reading date; coverage on a hand-made set.
+// errors known at the reading date; the conformal correction on hand-worked rows; coverage on a
+// hand-made set.
 #include "core/backtest.h"
 #include "core/errorbands.h"
 
@@ -65,4 +66,91 @@ TEST(ErrorBands, OnlyNightsFinalAtTheReadingDate) {
   EXPECT_NEAR(b->hi, 59.1, 1e-12);
   // Another lead bucket has no residuals.
   EXPECT_FALSE(bands.band(0, 0, window.buckets().bucketOf(1), cb::Date::fromYmd(2026, 3, 10), 50));
+}
+
+TEST(ErrorBands, ConformalScoreAndQuantile) {
+  // Hand-worked: y = 10 above [5, 8] by 2; y = 6 inside, 1 from the lower edge and 2 from the
+  // upper, so the score is max(5 − 6, 6 − 8) = −1.
+  EXPECT_DOUBLE_EQ(cb::ErrorBands::score(5, 8, 10), 2.0);
+  EXPECT_DOUBLE_EQ(cb::ErrorBands::score(5, 8, 6), -1.0);
+  // Rank ⌈(n + 1)·0.8⌉ (Romano, Patterson & Candès 2019, from memory): n = 10 → ⌈8.8⌉ = 9th.
+  std::vector<double> s(10);
+  std::iota(s.begin(), s.end(), 1.0);
+  EXPECT_DOUBLE_EQ(cb::ErrorBands::conformalQuantile(s, 0.8), 9.0);
+  // n = 4 → ⌈5 × 0.8⌉ = ⌈4.0⌉ = 4th, not the 5th that binary rounding of 4.0 could give.
+  EXPECT_DOUBLE_EQ(cb::ErrorBands::conformalQuantile({4, 1, 3, 2}, 0.8), 4.0);
+  // n = 3 → rank ⌈3.2⌉ = 4 passes n: the largest.
+  EXPECT_DOUBLE_EQ(cb::ErrorBands::conformalQuantile({-1, 7, 2}, 0.8), 7.0);
+  EXPECT_THROW(cb::ErrorBands::conformalQuantile({}, 0.8), std::invalid_argument);
+}
+
+TEST(ErrorBands, ConformalCorrectionFromKnownOutcomesOnly) {
+  // Lead-1 rows of nights 1–6 March, forecast 10, residuals 0, 1, 3, 6, 10, 15. With a 1-day
+  // base window each base band is [F + r(s − 1), F + r(s − 1)], so the score of night s is
+  // |r(s) − r(s − 1)|: 1, 2, 3, 4, 5 for nights 2–6 (night 1 has no earlier residual).
+  const std::vector<double> residual = {0, 1, 3, 6, 10, 15};
+  std::vector<cb::BacktestRow> rows;
+  for (unsigned n = 1; n <= 6; ++n) {
+    cb::BacktestRow r;
+    r.night = cb::Date::fromYmd(2026, 3, n);
+    r.reading = r.night - 1;
+    r.lead = 1;
+    r.forecast = 10;
+    r.final = 10 + residual[n - 1];
+    rows.push_back(r);
+  }
+  cb::BandOptions o;
+  o.windowDays = 1;
+  o.minCount = 1;
+  o.calibrationDays = 10;
+  const cb::ErrorWindow window(rows, cb::LeadBuckets{});
+  const int bucket = window.buckets().bucketOf(1);
+  {
+    // At 5 March: base [50 + 10, 50 + 10]; scores of nights 2–5 are 1, 2, 3, 4 (night 6 is not
+    // final yet); rank ⌈5 × 0.8⌉ = 4 → Q = 4 → [56, 64].
+    const cb::ErrorBands bands(window, o);
+    const auto b = bands.band(0, 0, bucket, cb::Date::fromYmd(2026, 3, 5), 50.0);
+    ASSERT_TRUE(b);
+    EXPECT_DOUBLE_EQ(b->lo, 56.0);
+    EXPECT_DOUBLE_EQ(b->hi, 64.0);
+  }
+  {
+    // A 2-day calibration window at 6 March: nights 5 and 6, scores 4 and 5; rank ⌈2.4⌉ = 3
+    // passes n = 2, so Q = 5; base [50 + 15, 50 + 15] → [60, 70].
+    o.calibrationDays = 2;
+    const cb::ErrorBands bands(window, o);
+    const auto b = bands.band(0, 0, bucket, cb::Date::fromYmd(2026, 3, 6), 50.0);
+    ASSERT_TRUE(b);
+    EXPECT_DOUBLE_EQ(b->lo, 60.0);
+    EXPECT_DOUBLE_EQ(b->hi, 70.0);
+  }
+  {
+    // Base window 2 days, minCount 2. At 3 March the base is Q7({1, 3}) = 1.2 and 2.8; the only
+    // score is night 3's (its base from residuals 0, 1 is [10.1, 10.9], y = 13 → 2.1): one score
+    // is fewer than minCount, so no correction → [51.2, 52.8].
+    o.windowDays = 2;
+    o.minCount = 2;
+    const cb::ErrorBands bands(window, o);
+    const auto b = bands.band(0, 0, bucket, cb::Date::fromYmd(2026, 3, 3), 50.0);
+    ASSERT_TRUE(b);
+    EXPECT_NEAR(b->lo, 51.2, 1e-12);
+    EXPECT_NEAR(b->hi, 52.8, 1e-12);
+    // At 4 March night 4 adds its score (base Q7({1, 3}) → [11.2, 12.8], y = 16 → 3.2); rank
+    // ⌈3 × 0.8⌉ = 3 passes n = 2 → Q = 3.2. Base Q7({3, 6}) = 3.3, 5.7 → [50.1, 58.9].
+    const auto c = bands.band(0, 0, bucket, cb::Date::fromYmd(2026, 3, 4), 50.0);
+    ASSERT_TRUE(c);
+    EXPECT_NEAR(c->lo, 50.1, 1e-12);
+    EXPECT_NEAR(c->hi, 58.9, 1e-12);
+  }
+  {
+    // Calibration off: the base band alone, [50 + 10, 50 + 10] at 5 March.
+    o.windowDays = 1;
+    o.minCount = 1;
+    o.calibrationDays = 0;
+    const cb::ErrorBands bands(window, o);
+    const auto b = bands.band(0, 0, bucket, cb::Date::fromYmd(2026, 3, 5), 50.0);
+    ASSERT_TRUE(b);
+    EXPECT_DOUBLE_EQ(b->lo, 60.0);
+    EXPECT_DOUBLE_EQ(b->hi, 60.0);
+  }
 }
