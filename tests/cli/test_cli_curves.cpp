@@ -2,32 +2,13 @@
 // curves are worked out by hand below from the OTB definition (brief section 4).
 #include "testsupport.h"
 
-#include <cstdio>
-#include <sys/wait.h>
-
 namespace {
 
-struct CliRun {
-  int code = -1;
-  std::string out; ///< stdout and stderr together
-};
+using cbtest::CliRun;
 
-CliRun run(const std::string &args) {
-  std::string cmd = std::string("\"") + CURVEBENCH_CLI + "\" " + args + " 2>&1";
-  CliRun r;
-  FILE *p = popen(cmd.c_str(), "r");
-  if (!p)
-    return r;
-  char buf[4096];
-  std::size_t n;
-  while ((n = fread(buf, 1, sizeof buf, p)) > 0)
-    r.out.append(buf, n);
-  int status = pclose(p);
-  r.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  return r;
-}
+CliRun run(const std::string &args) { return cbtest::runCli(CURVEBENCH_CLI, args); }
 
-std::string q(const std::filesystem::path &p) { return "\"" + p.string() + "\""; }
+std::string q(const std::filesystem::path &p) { return cbtest::quotePath(p); }
 
 // A1: 2 rooms, nights 01-05 and 01-06, booked 01-02.
 // A2: 1 room, night 01-05, booked 01-01, cancelled 01-04 (on the books when read 01-01 … 01-03).

@@ -4,36 +4,15 @@
 
 #include "core/store.h"
 
-#include <cstdio>
-#include <sys/wait.h>
-
 namespace {
 
-struct CliRun {
-  int code = -1;
-  std::string out; ///< stdout
-  std::string err; ///< stderr
-};
+using cbtest::CliRun;
 
 CliRun run(const std::string &args, const cbtest::TempDir &dir) {
-  const auto errFile = dir / "stderr.txt";
-  std::string cmd =
-      std::string("\"") + CURVEBENCH_CLI + "\" " + args + " 2>\"" + errFile.string() + "\"";
-  CliRun r;
-  FILE *p = popen(cmd.c_str(), "r");
-  if (!p)
-    return r;
-  char buf[4096];
-  std::size_t n;
-  while ((n = fread(buf, 1, sizeof buf, p)) > 0)
-    r.out.append(buf, n);
-  int status = pclose(p);
-  r.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  r.err = cbtest::readFile(errFile);
-  return r;
+  return cbtest::runCli(CURVEBENCH_CLI, args, dir / "stderr.txt");
 }
 
-std::string q(const std::filesystem::path &p) { return "\"" + p.string() + "\""; }
+std::string q(const std::filesystem::path &p) { return cbtest::quotePath(p); }
 
 /// Every night of Jan–Mar 2026: 2 CORP rooms booked 5 days ahead and 1 LEIS room booked the day
 /// before. So Final = 3 and OTB(s, s − h) = 3 at h = 1, 2 at h = 2…5, 0 at h ≥ 6.

@@ -3,34 +3,16 @@
 #include "testsupport.h"
 
 #include <algorithm>
-#include <cstdio>
 #include <memory>
-#include <sys/wait.h>
 #include <vector>
 
 namespace {
 
-struct CliRun {
-  int code = -1;
-  std::string out; ///< stdout and stderr together
-};
+using cbtest::CliRun;
 
-CliRun run(const std::string &args) {
-  std::string cmd = std::string("\"") + CURVEBENCH_CLI + "\" " + args + " 2>&1";
-  CliRun r;
-  FILE *p = popen(cmd.c_str(), "r");
-  if (!p)
-    return r;
-  char buf[4096];
-  std::size_t n;
-  while ((n = fread(buf, 1, sizeof buf, p)) > 0)
-    r.out.append(buf, n);
-  int status = pclose(p);
-  r.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  return r;
-}
+CliRun run(const std::string &args) { return cbtest::runCli(CURVEBENCH_CLI, args); }
 
-std::string q(const std::filesystem::path &p) { return "\"" + p.string() + "\""; }
+std::string q(const std::filesystem::path &p) { return cbtest::quotePath(p); }
 
 cb::Date d(const char *iso) { return *cb::Date::parseIso(iso); }
 

@@ -4,36 +4,15 @@
 
 #include "core/store.h"
 
-#include <cstdio>
-#include <sys/wait.h>
-
 namespace {
 
-struct CliRun {
-  int code = -1;
-  std::string out; ///< stdout
-  std::string err; ///< stderr
-};
+using cbtest::CliRun;
 
 CliRun run(const std::string &args, const cbtest::TempDir &dir) {
-  const auto errFile = dir / "stderr.txt";
-  std::string cmd =
-      std::string("\"") + CURVEBENCH_CLI + "\" " + args + " 2>\"" + errFile.string() + "\"";
-  CliRun r;
-  FILE *p = popen(cmd.c_str(), "r");
-  if (!p)
-    return r;
-  char buf[4096];
-  std::size_t n;
-  while ((n = fread(buf, 1, sizeof buf, p)) > 0)
-    r.out.append(buf, n);
-  int status = pclose(p);
-  r.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-  r.err = cbtest::readFile(errFile);
-  return r;
+  return cbtest::runCli(CURVEBENCH_CLI, args, dir / "stderr.txt");
 }
 
-std::string q(const std::filesystem::path &p) { return "\"" + p.string() + "\""; }
+std::string q(const std::filesystem::path &p) { return cbtest::quotePath(p); }
 
 // Reading date Mon 2026-06-15. Windows: 1 d = (06-14, 06-15], 7 d = (06-08, 06-15],
 // 15 d = (05-31, 06-15]. STLY nights (364 days back) are read on 2025-06-16.

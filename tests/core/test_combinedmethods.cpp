@@ -151,24 +151,6 @@ CubeOptions wholeRange(const std::vector<Reservation> &rs, std::optional<Date> a
   return CubeOptions{lo, hi, 365, SeriesBy::Segment, asOf};
 }
 
-/// The reservations as an extract taken at the end of day T would have shown them (the same cut
-/// as tests/core/test_curvecube.cpp's as-of test).
-std::vector<Reservation> extractAsOf(const std::vector<Reservation> &rs, Date t) {
-  std::vector<Reservation> out;
-  for (Reservation r : rs) {
-    if (r.bookedOn > t)
-      continue;
-    if (r.cancelledOn && *r.cancelledOn > t) {
-      r.status = ReservationStatus::Booked;
-      r.cancelledOn.reset();
-    }
-    if (r.status != ReservationStatus::Cancelled && r.arrival > t)
-      r.status = ReservationStatus::Booked;
-    out.push_back(std::move(r));
-  }
-  return out;
-}
-
 /// A method that always says `value` (for checking the blend's weights end to end).
 class Constant final : public cb::ForecastMethod {
 public:
@@ -195,7 +177,7 @@ const Cubes &cubes() {
   static const Cubes c = [] {
     const auto &all = sample().reservations;
     return Cubes{CurveCube::build(all, wholeRange(all, std::nullopt)),
-                 CurveCube::build(extractAsOf(all, kReading), wholeRange(all, kReading))};
+                 CurveCube::build(cbtest::cutAt(all, kReading), wholeRange(all, kReading))};
   }();
   return c;
 }

@@ -321,25 +321,6 @@ TEST(CurveCube, SampleFinalsAreTheRoomNightsNotCancelled) {
 
 namespace {
 
-/// The reservations as an extract taken at the end of day T would have shown them: rows booked
-/// later are absent, later cancellations not yet made, later no-shows and check-outs not yet
-/// known.
-std::vector<Reservation> extractAsOf(const std::vector<Reservation> &rs, Date t) {
-  std::vector<Reservation> out;
-  for (Reservation r : rs) {
-    if (r.bookedOn > t)
-      continue;
-    if (r.cancelledOn && *r.cancelledOn > t) {
-      r.status = ReservationStatus::Booked;
-      r.cancelledOn.reset();
-    }
-    if (r.status != ReservationStatus::Cancelled && r.arrival > t)
-      r.status = ReservationStatus::Booked;
-    out.push_back(std::move(r));
-  }
-  return out;
-}
-
 void expectSameKnownFigures(const CurveCube &a, const CurveCube &b) {
   ASSERT_EQ(a.series(), b.series());
   ASSERT_EQ(a.asOf(), b.asOf());
@@ -366,7 +347,7 @@ TEST(CurveCube, AsOfIgnoresEverythingDatedLater) {
   const auto &all = sample().reservations;
   // T: a day with bookings, so the cut extract still reaches it; well inside the history.
   const Date t = d("2025-06-17");
-  std::vector<Reservation> cut = extractAsOf(all, t);
+  std::vector<Reservation> cut = cbtest::cutAt(all, t);
   ASSERT_EQ(cb::newestActivity(cut), t);
   ASSERT_LT(cut.size(), all.size());
   ASSERT_TRUE(std::any_of(all.begin(), all.end(), [&](const Reservation &r) {

@@ -5,6 +5,8 @@
 #include "core/curvecube.h"
 #include "core/simulator.h"
 
+#include "testsupport.h"
+
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -202,24 +204,6 @@ const cb::SampleProperty &sample() {
   return s;
 }
 
-/// The reservations as an extract taken at the end of day t would have shown them (the same cut
-/// as test_curvecube's as-of test): later bookings absent, later cancellations not yet made.
-std::vector<Reservation> extractAsOf(const std::vector<Reservation> &rs, Date t) {
-  std::vector<Reservation> out;
-  for (Reservation r : rs) {
-    if (r.bookedOn > t)
-      continue;
-    if (r.cancelledOn && *r.cancelledOn > t) {
-      r.status = ReservationStatus::Booked;
-      r.cancelledOn.reset();
-    }
-    if (r.status != ReservationStatus::Cancelled && r.arrival > t)
-      r.status = ReservationStatus::Booked;
-    out.push_back(std::move(r));
-  }
-  return out;
-}
-
 } // namespace
 
 TEST(HistoricalMethods, NoLookAhead) {
@@ -231,7 +215,7 @@ TEST(HistoricalMethods, NoLookAhead) {
   }
   for (const char *iso : {"2025-06-17", "2024-12-10"}) {
     const Date t = d(iso);
-    const auto cut = extractAsOf(all, t);
+    const auto cut = cbtest::cutAt(all, t);
     ASSERT_LT(cut.size(), all.size());
     for (SeriesBy by : {SeriesBy::Total, SeriesBy::Segment}) {
       // Same night range for both; finals need no leads, so maxDba is small.

@@ -5,6 +5,8 @@
 #include "core/bookingcurve.h"
 #include "core/simulator.h"
 
+#include "testsupport.h"
+
 #include <gtest/gtest.h>
 
 #include <random>
@@ -12,44 +14,31 @@
 using cb::Date;
 using cb::HolidayMap;
 using cb::Reservation;
+using cbtest::makeReservation;
 
 namespace {
 
 Date d(const char *iso) { return *Date::parseIso(iso); }
-
-Reservation res(const char *id, const char *booked, const char *arr, const char *dep, int rooms,
-                const char *seg, const char *cancelled = nullptr) {
-  Reservation r;
-  r.id = id;
-  r.bookedOn = d(booked);
-  r.arrival = d(arr);
-  r.departure = d(dep);
-  r.rooms = rooms;
-  r.segment = seg;
-  r.channel = "WEB";
-  if (cancelled) {
-    r.status = cb::ReservationStatus::Cancelled;
-    r.cancelledOn = d(cancelled);
-  }
-  return r;
-}
 
 // Reading date Mon 2026-06-15; nights 06-16 … 06-20 (leads 1 … 5). With the 364-day alignment
 // every STLY cell is read on 2025-06-16.
 std::vector<Reservation> handSet() {
   return {
       // This year.
-      res("A", "2026-05-01", "2026-06-19", "2026-06-21", 3, "CORP"),
-      res("B", "2026-06-10", "2026-06-20", "2026-06-21", 2, "FLEX"),
-      res("C", "2026-06-01", "2026-06-20", "2026-06-21", 4, "FLEX", "2026-06-12"), // gone by t
-      res("D", "2026-06-16", "2026-06-20", "2026-06-21", 5, "FLEX"),               // after t
-      res("H", "2026-06-14", "2026-06-17", "2026-06-18", 1, "CORP"),
+      makeReservation("A", "2026-05-01", "2026-06-19", "2026-06-21", 3, "CORP"),
+      makeReservation("B", "2026-06-10", "2026-06-20", "2026-06-21", 2, "FLEX"),
+      makeReservation("C", "2026-06-01", "2026-06-20", "2026-06-21", 4, "FLEX",
+                      "2026-06-12"),                                             // gone by t
+      makeReservation("D", "2026-06-16", "2026-06-20", "2026-06-21", 5, "FLEX"), // after t
+      makeReservation("H", "2026-06-14", "2026-06-17", "2026-06-18", 1, "CORP"),
       // Last year.
-      res("E", "2025-06-01", "2025-06-20", "2025-06-22", 2, "CORP"),
-      res("F", "2025-06-17", "2025-06-21", "2025-06-22", 6, "FLEX"), // a day after the STLY read
-      res("G", "2025-06-10", "2025-06-21", "2025-06-22", 1, "FLEX", "2025-06-18"), // still on
-      res("I", "2025-06-01", "2025-06-13", "2025-06-14", 4, "CORP"),
-      res("J", "2025-06-08", "2025-06-12", "2025-06-13", 2, "FLEX"),
+      makeReservation("E", "2025-06-01", "2025-06-20", "2025-06-22", 2, "CORP"),
+      makeReservation("F", "2025-06-17", "2025-06-21", "2025-06-22", 6,
+                      "FLEX"), // a day after the STLY read
+      makeReservation("G", "2025-06-10", "2025-06-21", "2025-06-22", 1, "FLEX",
+                      "2025-06-18"), // still on
+      makeReservation("I", "2025-06-01", "2025-06-13", "2025-06-14", 4, "CORP"),
+      makeReservation("J", "2025-06-08", "2025-06-12", "2025-06-13", 2, "FLEX"),
   };
 }
 

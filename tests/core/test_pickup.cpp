@@ -4,6 +4,8 @@
 
 #include "core/simulator.h"
 
+#include "testsupport.h"
+
 #include <gtest/gtest.h>
 
 #include <random>
@@ -13,41 +15,34 @@ using cb::Date;
 using cb::PickupSplit;
 using cb::PickupWindow;
 using cb::Reservation;
+using cbtest::makeReservation;
 
 namespace {
 
 Date d(const char *iso) { return *Date::parseIso(iso); }
 
-Reservation res(const char *id, const char *booked, const char *arr, const char *dep, int rooms,
-                const char *seg, const char *cancelled = nullptr) {
-  Reservation r;
-  r.id = id;
-  r.bookedOn = d(booked);
-  r.arrival = d(arr);
-  r.departure = d(dep);
-  r.rooms = rooms;
-  r.segment = seg;
-  r.channel = "WEB";
-  if (cancelled) {
-    r.status = cb::ReservationStatus::Cancelled;
-    r.cancelledOn = d(cancelled);
-  }
-  return r;
-}
-
 // Reading date 2026-06-15; windows 1 d = (06-14, 06-15], 7 d = (06-08, 06-15],
 // 15 d = (05-31, 06-15].
 std::vector<Reservation> handSet() {
   return {
-      res("a", "2026-05-20", "2026-06-19", "2026-06-22", 2, "CORP"), // before every window
-      res("b", "2026-06-15", "2026-06-20", "2026-06-21", 1, "FLEX"), // booked in all three
-      res("c", "2026-06-10", "2026-06-18", "2026-06-21", 3, "FLEX"), // booked in 7 d and 15 d
-      res("d", "2026-06-01", "2026-06-20", "2026-06-22", 4, "CORP", "2026-06-14"), // 15 d both
-      res("e", "2026-06-09", "2026-06-20", "2026-06-21", 2, "FLEX", "2026-06-15"), // 1 d cancel
-      res("f", "2026-06-15", "2026-06-20", "2026-06-20", 5, "FLEX"), // day use: never counts
-      res("g", "2026-06-12", "2026-06-21", "2026-06-23", 6, ""),     // nights 21 and 22 only
-      res("h", "2026-06-14", "2026-06-20", "2026-06-21", 1, "CORP", "2026-06-17"), // cancel later
-      res("i", "2026-06-17", "2026-06-20", "2026-06-21", 7, "CORP"), // booked after the reading
+      makeReservation("a", "2026-05-20", "2026-06-19", "2026-06-22", 2,
+                      "CORP"), // before every window
+      makeReservation("b", "2026-06-15", "2026-06-20", "2026-06-21", 1,
+                      "FLEX"), // booked in all three
+      makeReservation("c", "2026-06-10", "2026-06-18", "2026-06-21", 3,
+                      "FLEX"), // booked in 7 d and 15 d
+      makeReservation("d", "2026-06-01", "2026-06-20", "2026-06-22", 4, "CORP",
+                      "2026-06-14"), // 15 d both
+      makeReservation("e", "2026-06-09", "2026-06-20", "2026-06-21", 2, "FLEX",
+                      "2026-06-15"), // 1 d cancel
+      makeReservation("f", "2026-06-15", "2026-06-20", "2026-06-20", 5,
+                      "FLEX"), // day use: never counts
+      makeReservation("g", "2026-06-12", "2026-06-21", "2026-06-23", 6,
+                      ""), // nights 21 and 22 only
+      makeReservation("h", "2026-06-14", "2026-06-20", "2026-06-21", 1, "CORP",
+                      "2026-06-17"), // cancel later
+      makeReservation("i", "2026-06-17", "2026-06-20", "2026-06-21", 7,
+                      "CORP"), // booked after the reading
   };
 }
 

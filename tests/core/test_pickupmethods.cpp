@@ -258,24 +258,6 @@ const cb::SampleProperty &sample() {
   return s;
 }
 
-/// The reservations as an extract taken at the end of day T would have shown them (the same
-/// cut as test_curvecube.cpp's as-of test).
-std::vector<Reservation> extractAsOf(const std::vector<Reservation> &rs, Date t) {
-  std::vector<Reservation> out;
-  for (Reservation r : rs) {
-    if (r.bookedOn > t)
-      continue;
-    if (r.cancelledOn && *r.cancelledOn > t) {
-      r.status = ReservationStatus::Booked;
-      r.cancelledOn.reset();
-    }
-    if (r.status != ReservationStatus::Cancelled && r.arrival > t)
-      r.status = ReservationStatus::Booked;
-    out.push_back(std::move(r));
-  }
-  return out;
-}
-
 } // namespace
 
 TEST(PickupMethods, NoLookAhead) {
@@ -293,7 +275,7 @@ TEST(PickupMethods, NoLookAhead) {
 
   for (const char *tIso : {"2025-06-17", "2026-02-03"}) {
     const Date t = d(tIso);
-    std::vector<Reservation> cut = extractAsOf(all, t);
+    std::vector<Reservation> cut = cbtest::cutAt(all, t);
     ASSERT_EQ(cb::newestActivity(cut), t);
     CubeOptions o{d("2023-11-01"), t + 200, 120, SeriesBy::Segment, std::nullopt};
     CurveCube fromAll = CurveCube::build(all, o);

@@ -1,8 +1,10 @@
 #include "testsupport.h"
 
+#include <cstdio>
 #include <fstream>
 #include <random>
 #include <sstream>
+#include <sys/wait.h>
 
 namespace cbtest {
 
@@ -54,6 +56,73 @@ std::string readFile(const std::filesystem::path &p) {
   }
   return ::testing::AssertionFailure() << "no finding contains \"" << needle
                                        << "\"; findings:" << (all.empty() ? " (none)" : all);
+}
+
+namespace {
+
+CliRun runCommand(const std::string &cmd) {
+  CliRun r;
+  FILE *p = popen(cmd.c_str(), "r");
+  if (!p)
+    return r;
+  char buf[4096];
+  std::size_t n;
+  while ((n = fread(buf, 1, sizeof buf, p)) > 0)
+    r.out.append(buf, n);
+  int status = pclose(p);
+  r.code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  return r;
+}
+
+cb::Date isoDate(const char *iso) { return *cb::Date::parseIso(iso); }
+
+} // namespace
+
+CliRun runCli(const std::string &cli, const std::string &args) {
+  return runCommand("\"" + cli + "\" " + args + " 2>&1");
+}
+
+CliRun runCli(const std::string &cli, const std::string &args,
+              const std::filesystem::path &errFile) {
+  CliRun r = runCommand("\"" + cli + "\" " + args + " 2>\"" + errFile.string() + "\"");
+  r.err = readFile(errFile);
+  return r;
+}
+
+std::string quotePath(const std::filesystem::path &p) { return "\"" + p.string() + "\""; }
+
+cb::Reservation makeReservation(const char *id, const char *booked, const char *arr,
+                                const char *dep, int rooms, const char *seg,
+                                const char *cancelled) {
+  cb::Reservation r;
+  r.id = id;
+  r.bookedOn = isoDate(booked);
+  r.arrival = isoDate(arr);
+  r.departure = isoDate(dep);
+  r.rooms = rooms;
+  r.segment = seg;
+  r.channel = "WEB";
+  if (cancelled) {
+    r.status = cb::ReservationStatus::Cancelled;
+    r.cancelledOn = isoDate(cancelled);
+  }
+  return r;
+}
+
+std::vector<cb::Reservation> cutAt(const std::vector<cb::Reservation> &rs, cb::Date t) {
+  std::vector<cb::Reservation> out;
+  for (cb::Reservation r : rs) {
+    if (r.bookedOn > t)
+      continue;
+    if (r.cancelledOn && *r.cancelledOn > t) {
+      r.status = cb::ReservationStatus::Booked;
+      r.cancelledOn.reset();
+    }
+    if (r.status != cb::ReservationStatus::Cancelled && r.arrival > t)
+      r.status = cb::ReservationStatus::Booked;
+    out.push_back(std::move(r));
+  }
+  return out;
 }
 
 } // namespace cbtest

@@ -2,11 +2,13 @@
 #pragma once
 
 #include "core/finding.h"
+#include "core/reservation.h"
 
 #include <gtest/gtest.h>
 
 #include <filesystem>
 #include <string>
+#include <vector>
 
 namespace cbtest {
 
@@ -37,5 +39,33 @@ std::string readFile(const std::filesystem::path &p);
 
 /// Passes when some finding's toString() contains `needle`; prints all findings otherwise.
 ::testing::AssertionResult hasFinding(const cb::Findings &findings, const std::string &needle);
+
+/// One run of a command-line executable: exit code (-1 when it did not exit normally), stdout
+/// and stderr.
+struct CliRun {
+  int code = -1;
+  std::string out; ///< stdout, and stderr too when no stderr file is given
+  std::string err; ///< stderr, when a stderr file is given
+};
+
+/// Runs `"cli" args` through the shell. Without `errFile` stderr goes to `out` with stdout;
+/// with it stderr is written there and read back into `err`.
+CliRun runCli(const std::string &cli, const std::string &args);
+CliRun runCli(const std::string &cli, const std::string &args,
+              const std::filesystem::path &errFile);
+
+/// The path in double quotes, for a shell command line.
+std::string quotePath(const std::filesystem::path &p);
+
+/// A reservation booked on `booked` for nights [arr, dep), segment `seg`, channel WEB, cancelled
+/// on `cancelled` when given. Dates are ISO (YYYY-MM-DD).
+cb::Reservation makeReservation(const char *id, const char *booked, const char *arr,
+                                const char *dep, int rooms, const char *seg,
+                                const char *cancelled = nullptr);
+
+/// The reservations as an extract taken at the end of day t would have shown them: rows booked
+/// after t are absent, cancellations after t not yet made, and rows not cancelled by t that
+/// arrive after t still just Booked (later no-shows and check-outs not yet known).
+std::vector<cb::Reservation> cutAt(const std::vector<cb::Reservation> &rs, cb::Date t);
 
 } // namespace cbtest
