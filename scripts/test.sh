@@ -18,8 +18,10 @@ QT_QPA_PLATFORM=offscreen ctest --test-dir "$build" --output-on-failure -j "$job
 bash scripts/check-format.sh
 
 if [[ "${CURVEBENCH_SANITIZE_RUN:-0}" == "1" ]]; then
+  # Warnings are errors in the main build above; not here, because GCC 12 raises false
+  # -Wmaybe-uninitialized warnings inside libstdc++ (std::regex) when sanitizers and -O2 meet.
   cmake -S . -B "$build-asan" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCURVEBENCH_SANITIZE=ON \
-    -DCURVEBENCH_BUILD_GUI=OFF -DCURVEBENCH_WERROR=ON
+    -DCURVEBENCH_BUILD_GUI=OFF -DCURVEBENCH_WERROR=OFF
   cmake --build "$build-asan" -j "$jobs"
   ctest --test-dir "$build-asan" --output-on-failure -j "$jobs"
 fi
