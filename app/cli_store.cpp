@@ -12,6 +12,7 @@
 
 #include <cstdio>
 #include <memory>
+#include <optional>
 
 namespace cbcli {
 namespace {
@@ -65,16 +66,20 @@ int runInfo(const std::string &storePath) {
 }
 
 int runSample(const std::string &outDir, const std::string &storePath) {
+  // Simulated once: with --store the store builder writes the same files it imports.
   cb::SampleProperty sample = cb::simulateProperty();
-  cb::writeSampleFiles(sample, outDir);
+  std::optional<cb::ImportReport> built;
+  if (storePath.empty())
+    cb::writeSampleFiles(sample, outDir);
+  else
+    built = cb::buildSampleStore(storePath, outDir, sample);
   fmt::print("wrote the sample property \"{}\" ({} reservations, as of {}) to {}\n",
              sample.property.name,
              cb::formatCount(static_cast<std::int64_t>(sample.reservations.size())),
              sample.readingDate.toIso(), outDir);
-  if (!storePath.empty()) {
-    auto rep = cb::buildSampleStore(storePath, outDir);
-    fmt::print("built the store {} ({} reservations)\n", storePath, cb::formatCount(rep.log.added));
-  }
+  if (built)
+    fmt::print("built the store {} ({} reservations)\n", storePath,
+               cb::formatCount(built->log.added));
   return kOk;
 }
 

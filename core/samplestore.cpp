@@ -7,6 +7,11 @@ namespace cb {
 ImportReport buildSampleStore(const std::filesystem::path &storePath,
                               const std::filesystem::path &filesDir,
                               const SimulatorConfig &config) {
+  return buildSampleStore(storePath, filesDir, simulateProperty(config));
+}
+
+ImportReport buildSampleStore(const std::filesystem::path &storePath,
+                              const std::filesystem::path &filesDir, const SampleProperty &sample) {
   if (std::filesystem::exists(storePath))
     throw StoreError(fmt::format("{} already exists", storePath.string()));
   // Built under a temporary name and renamed at the end, so a build that fails or is killed
@@ -15,7 +20,6 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
   partial += ".partial";
   for (const char *suffix : {"", "-wal", "-shm"})
     std::filesystem::remove(partial.string() + suffix);
-  SampleProperty sample = simulateProperty(config);
   auto store = Store::create(partial, sample.property);
   {
     Store::Transaction tx(*store);

@@ -15,5 +15,8 @@ namespace cb {
 ImportReport buildSampleStore(const std::filesystem::path &storePath,
                               const std::filesystem::path &filesDir,
                               const SimulatorConfig &config = {});
+/// The same for a sample already simulated (so a caller that needs it too simulates once).
+ImportReport buildSampleStore(const std::filesystem::path &storePath,
+                              const std::filesystem::path &filesDir, const SampleProperty &sample);
 
 } // namespace cb
