@@ -2,6 +2,7 @@
 // whatever the thread count, progress and cancel, and the no-look-ahead proof for every method.
 #include "core/backtest.h"
 #include "core/simulator.h"
+#include "testsupport.h"
 
 #include <gtest/gtest.h>
 
@@ -40,26 +41,7 @@ std::unique_ptr<cb::ForecastMethod> testFactory(std::string_view name, const cb:
 
 /// Every night of Jan–Mar 2026: 2 rooms booked 5 days ahead and 1 room booked the day before,
 /// so Final = 3 and OTB(s, s − h) = 3 at h = 1, 2 at h = 2…5, 0 beyond.
-std::vector<cb::Reservation> handRows() {
-  std::vector<cb::Reservation> rows;
-  for (Date s = d(2026, 1, 1); s <= d(2026, 3, 31); ++s) {
-    cb::Reservation a;
-    a.id = "A" + s.toIso();
-    a.bookedOn = s - 5;
-    a.arrival = s;
-    a.departure = s + 1;
-    a.rooms = 2;
-    a.segment = "CORP";
-    cb::Reservation b = a;
-    b.id = "B" + s.toIso();
-    b.bookedOn = s - 1;
-    b.rooms = 1;
-    b.segment = "LEIS";
-    rows.push_back(a);
-    rows.push_back(b);
-  }
-  return rows;
-}
+std::vector<cb::Reservation> handRows() { return cbtest::steadyQuarterRows(); }
 
 cb::Property property() {
   cb::Property p;

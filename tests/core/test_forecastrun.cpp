@@ -21,22 +21,8 @@ std::unique_ptr<cb::Store> handStore(const cbtest::TempDir &dir) {
   p.capacity = 10;
   auto store = cb::Store::create(dir / "t.curvebench", p);
   cb::Store::Transaction tx(*store);
-  for (Date s = d(2026, 1, 1); s <= d(2026, 3, 31); ++s) {
-    cb::Reservation a;
-    a.id = "A" + s.toIso();
-    a.bookedOn = s - 5;
-    a.arrival = s;
-    a.departure = s + 1;
-    a.rooms = 2;
-    a.segment = "CORP";
-    cb::Reservation b = a;
-    b.id = "B" + s.toIso();
-    b.bookedOn = s - 1;
-    b.rooms = 1;
-    b.segment = "LEIS";
-    store->upsertReservation(a, 0);
-    store->upsertReservation(b, 0);
-  }
+  for (const cb::Reservation &r : cbtest::steadyQuarterRows())
+    store->upsertReservation(r, 0);
   tx.commit();
   return store;
 }

@@ -46,6 +46,27 @@ std::string readFile(const std::filesystem::path &p) {
   return ss.str();
 }
 
+std::vector<cb::Reservation> steadyQuarterRows() {
+  std::vector<cb::Reservation> rows;
+  for (cb::Date s = cb::Date::fromYmd(2026, 1, 1); s <= cb::Date::fromYmd(2026, 3, 31); ++s) {
+    cb::Reservation a;
+    a.id = "A" + s.toIso();
+    a.bookedOn = s - 5;
+    a.arrival = s;
+    a.departure = s + 1;
+    a.rooms = 2;
+    a.segment = "CORP";
+    cb::Reservation b = a;
+    b.id = "B" + s.toIso();
+    b.bookedOn = s - 1;
+    b.rooms = 1;
+    b.segment = "LEIS";
+    rows.push_back(a);
+    rows.push_back(b);
+  }
+  return rows;
+}
+
 ::testing::AssertionResult hasFinding(const cb::Findings &findings, const std::string &needle) {
   std::string all;
   for (const auto &f : findings) {

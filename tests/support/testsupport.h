@@ -38,6 +38,11 @@ void writeFile(const std::filesystem::path &p, const std::string &bytes);
 std::string readFile(const std::filesystem::path &p);
 
 /// Passes when some finding's toString() contains `needle`; prints all findings otherwise.
+/// A steady hand-worked quarter: every night of Jan–Mar 2026 has 2 CORP rooms booked 5 days
+/// ahead ("A<night>") and 1 LEIS room booked the day before ("B<night>"), so Final = 3 and
+/// OTB(s, s − h) = 3 at h = 1, 2 at h = 2…5, 0 beyond. Used by the backtest and forecast tests.
+std::vector<cb::Reservation> steadyQuarterRows();
+
 ::testing::AssertionResult hasFinding(const cb::Findings &findings, const std::string &needle);
 
 /// One run of a command-line executable: exit code (-1 when it did not exit normally), stdout
