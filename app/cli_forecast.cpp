@@ -5,6 +5,7 @@
 #include "core/backtest.h"
 #include "core/forecastrun.h"
 #include "core/nativeformat.h"
+#include "core/propertysettings.h"
 #include "core/store.h"
 
 #include <fmt/format.h>
@@ -20,7 +21,7 @@ namespace {
 
 struct MethodFlags {
   int refs = 8, mavgK = 4, paceWindow = 7;
-  bool refsSeasonal = false;
+  bool refsSeasonal = false, naiveHistory = false;
   std::string criterion = "mae";
 
   cb::MethodOptions options() const {
@@ -108,6 +109,9 @@ void addMethodFlags(CLI::App *cmd, MethodFlags &f) {
   cmd->add_option("--criterion", f.criterion,
                   "auto: error that picks the method: mae (default), rmse, wape, abs-bias")
       ->check(CLI::IsMember({"mae", "rmse", "wape", "abs-bias"}));
+  cmd->add_flag("--naive-history", f.naiveHistory,
+                "Train on the finals as observed, not on unconstrained history (the default, "
+                "unless the property's settings turn it off)");
 }
 
 /// "Methods:" with every name and its one-line description, for --help.
@@ -147,7 +151,11 @@ int runForecast(const ForecastArgs &a) {
   req.by = *cb::parseSeriesBy(a.by);
   req.methodOptions = a.flags.options();
   req.autoSelect.criterion = *cb::parseCriterion(a.flags.criterion);
-  cb::ForecastRun run = cb::ForecastRun::compute(rows, store->property(), req);
+  const cb::Property property = store->property();
+  const cb::CensorSources sources{store->closures(), store->denials()};
+  req.unconstrain = cb::historyOptions(property, a.flags.naiveHistory);
+  req.censoring = &sources;
+  cb::ForecastRun run = cb::ForecastRun::compute(rows, property, req);
   run.dataVersion = cb::ForecastRun::dataVersionOf(*store);
   const std::int64_t id = run.save(*store);
 
@@ -183,7 +191,11 @@ int runBacktest(const BacktestArgs &a) {
   if (o.to < o.from)
     throw std::runtime_error("--from " + a.from + " is after --to " + a.to);
   const cb::CurveCube cube = cb::Backtest::buildCube(rows, o, *cb::parseSeriesBy(a.by));
-  const cb::BacktestResult r = cb::Backtest::run(cube, store->property(), o);
+  const cb::Property property = store->property();
+  const cb::CensorSources sources{store->closures(), store->denials()};
+  o.unconstrain = cb::historyOptions(property, a.flags.naiveHistory);
+  o.censoring = &sources;
+  const cb::BacktestResult r = cb::Backtest::run(cube, property, o);
 
   std::vector<cb::OverrideValue> ov;
   for (const cb::ForecastOverride &x : cb::overrides(*store))

@@ -36,13 +36,25 @@ std::uint32_t fallbackMethod(const std::vector<std::string> &base) {
 /// Forecasts of every base method at one reading date, ordered by (method, series, lead).
 void forecastAt(const CurveCube &cube, const Property &property,
                 std::vector<std::unique_ptr<ForecastMethod>> &methods,
-                const std::vector<int> &leads, Date t, std::vector<BacktestRow> &out) {
+                const std::vector<int> &leads, Date t, const BacktestOptions &options,
+                std::vector<BacktestRow> &out) {
   const Date lastNight = std::min(cube.lastNight(), cube.asOf());
   if (t + leads.front() > lastNight)
     return;
+  // The unconstrained history as known at t, one per series (only what was known at t).
+  std::vector<std::vector<double>> histories;
+  if (options.unconstrain) {
+    static const CensorSources none;
+    const CensorSources &sources = options.censoring ? *options.censoring : none;
+    for (std::size_t si = 0; si < cube.series().size(); ++si)
+      histories.push_back(
+          unconstrainedFinals(cube, si, t, property, sources, *options.unconstrain));
+  }
   for (std::size_t mi = 0; mi < methods.size(); ++mi) {
     for (std::size_t si = 0; si < cube.series().size(); ++si) {
-      const ForecastContext ctx(cube, si, t, property);
+      ForecastContext ctx(cube, si, t, property);
+      if (!histories.empty())
+        ctx.useHistory(&histories[si]);
       methods[mi]->fit(ctx);
       for (int h : leads) {
         const Date s = t + h;
@@ -148,7 +160,7 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
         const std::size_t i = next++;
         if (i >= dates.size() || cancel)
           break;
-        forecastAt(cube, property, methods, leads, dates[i], perDate[i]);
+        forecastAt(cube, property, methods, leads, dates[i], options, perDate[i]);
         ++done;
         wake.notify_one();
       }

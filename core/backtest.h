@@ -8,6 +8,7 @@
 #include "core/errorbands.h"
 #include "core/finding.h"
 #include "core/forecastmethod.h"
+#include "core/unconstrain.h"
 
 #include <cstdint>
 #include <functional>
@@ -51,6 +52,10 @@ struct BacktestOptions {
   /// calibration the middle term is bands.windowDays), so that auto and the calibrated bands have
   /// known errors from the first reading date on.
   bool warmUp = true;
+  /// Train on unconstrained history as known at each reading date (core/unconstrain.h);
+  /// nullopt = the finals as observed. Forecasts are still scored against the observed finals.
+  std::optional<UnconstrainOptions> unconstrain;
+  const CensorSources *censoring = nullptr; ///< closures and denials; nullptr = none
   bool withBands = true; ///< false leaves BacktestRow::lo / hi empty (saves the quantile work)
   unsigned threads = 0;  ///< 0 = every core
   ProgressFn progress = nullptr; ///< (done, total) in reading dates; false cancels

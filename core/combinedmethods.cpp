@@ -182,6 +182,7 @@ private:
         continue;
       // A context masked at the past reading date: r − lead < t, so nothing after t is visible.
       ForecastContext past(ctx.cube(), ctx.series(), reading, ctx.property());
+      past.useHistory(ctx.history()); // estimates known at t; past masks nights after `reading`
       std::optional<double> f[2];
       for (std::size_t k = 0; k < 2; ++k) {
         auto m = make_[k]();

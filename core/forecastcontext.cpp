@@ -25,14 +25,31 @@ std::optional<int> ForecastContext::otb(Date night, int dba) const {
 std::optional<int> ForecastContext::otbNow(Date night) const {
   int h = night - asOf_;
   if (h < 0)
-    return final(night);
+    return observedFinal(night);
   return otb(night, h);
 }
 
-std::optional<int> ForecastContext::final(Date night) const {
+std::optional<int> ForecastContext::observedFinal(Date night) const {
   if (night > asOf_ || night < cube_.firstNight() || night > cube_.lastNight())
     return std::nullopt;
   return cube_.final(series_, night);
+}
+
+std::optional<double> ForecastContext::final(Date night) const {
+  const std::optional<int> observed = observedFinal(night);
+  if (!observed)
+    return std::nullopt;
+  if (history_) {
+    const auto i = static_cast<std::size_t>(night - cube_.firstNight());
+    if (i < history_->size())
+      return (*history_)[i];
+  }
+  return static_cast<double>(*observed);
+}
+
+void ForecastContext::useHistory(const std::vector<double> *demand) {
+  history_ = demand;
+  finalsReady_ = false;
 }
 
 const std::vector<double> &ForecastContext::finals() const {
@@ -40,7 +57,7 @@ const std::vector<double> &ForecastContext::finals() const {
     finals_.clear();
     Date last = std::min(asOf_, cube_.lastNight());
     for (Date s = cube_.firstNight(); s <= last; ++s)
-      finals_.push_back(static_cast<double>(cube_.final(series_, s).value_or(0)));
+      finals_.push_back(final(s).value_or(0.0));
     finalsReady_ = true;
   }
   return finals_;

@@ -34,16 +34,27 @@ public:
   /// OTB(s, t) as of the reading date itself (lead h = s − t); nullopt when h > maxDba, as the
   /// cube's earliest reading of s is s − maxDba. Build the cube with maxDba ≥ the longest lead.
   std::optional<int> otbNow(Date night) const;
-  /// Final(s) when s ≤ asOf and inside the cube.
-  std::optional<int> final(Date night) const;
-  /// Finals of nights firstNight … asOf, oldest first (a daily time series; index 0 = firstNight).
+  /// Final(s) as the methods learn it, when s ≤ asOf and inside the cube: the observed final,
+  /// or its unconstrained estimate when useHistory() was given one.
+  std::optional<double> final(Date night) const;
+  /// Final(s) as observed (rooms on the books on the night), whatever useHistory() says.
+  std::optional<int> observedFinal(Date night) const;
+  /// Finals of nights firstNight … asOf as final() reads them, oldest first (a daily time
+  /// series; index 0 = firstNight).
   const std::vector<double> &finals() const;
+  /// Makes final() and finals() read `demand` (index 0 = firstNight, at least every night up to
+  /// min(asOf, lastNight)): the unconstrained history known at asOf (core/unconstrain.h), so
+  /// sold-out nights do not teach a method that demand stopped at capacity. nullptr = observed.
+  /// The vector must outlive the context.
+  void useHistory(const std::vector<double> *demand);
+  const std::vector<double> *history() const { return history_; }
 
 private:
   const CurveCube &cube_;
   std::size_t series_;
   Date asOf_;
   const Property &property_;
+  const std::vector<double> *history_ = nullptr;
   mutable std::vector<double> finals_;
   mutable bool finalsReady_ = false;
 };

@@ -9,6 +9,7 @@
 
 #include <algorithm>
 #include <chrono>
+#include <cmath>
 #include <map>
 
 namespace cb {
@@ -36,7 +37,24 @@ Json optionsJson(const ForecastRequest &r) {
               {"window_days", r.autoSelect.windowDays},
               {"min_count", r.autoSelect.minCount},
               {"band", {r.bands.lower, r.bands.upper}},
-              {"band_min_count", r.bands.minCount}};
+              {"band_min_count", r.bands.minCount},
+              {"history", r.unconstrain ? std::string(unconstrainMethodName(r.unconstrain->method))
+                                        : std::string("observed")}};
+}
+
+/// Root mean square of the errors of (series, method, bucket) whose nights lie in the band window
+/// up to t: the spread of the forecast's demand distribution (brief section 6). nullopt with
+/// fewer than the band's minimum count.
+std::optional<double> rmsError(const ErrorWindow &window, std::uint32_t series,
+                               std::uint32_t method, int bucket, Date t,
+                               const BandOptions &options) {
+  const auto rows = window.rows(series, method, bucket, t - options.windowDays + 1, t);
+  if (rows.empty() || static_cast<int>(rows.size()) < options.minCount)
+    return std::nullopt;
+  double sum = 0;
+  for (const BacktestRow &r : rows)
+    sum += (r.final - r.forecast) * (r.final - r.forecast);
+  return std::sqrt(sum / static_cast<double>(rows.size()));
 }
 
 } // namespace
@@ -118,6 +136,8 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   bo.methodOptions = request.methodOptions;
   bo.warmUp = false;
   bo.withBands = false;
+  bo.unconstrain = request.unconstrain;
+  bo.censoring = request.censoring;
   bo.threads = request.threads;
   bo.progress = request.progress;
   bo.progressContext = request.progressContext;
@@ -146,7 +166,15 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   for (std::size_t si = 0; si < cube.series().size(); ++si) {
     // Fit each method once for this series; auto may use several across lead buckets.
     std::vector<std::unique_ptr<ForecastMethod>> methods;
-    const ForecastContext ctx(cube, si, request.asOf, property);
+    ForecastContext ctx(cube, si, request.asOf, property);
+    std::vector<double> history;
+    if (request.unconstrain) {
+      static const CensorSources none;
+      history =
+          unconstrainedFinals(cube, si, request.asOf, property,
+                              request.censoring ? *request.censoring : none, *request.unconstrain);
+      ctx.useHistory(&history);
+    }
     for (const auto &name : base) {
       methods.push_back(makeMethod(name, request.methodOptions));
       methods.back()->fit(ctx);
@@ -189,6 +217,7 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
           v.lo = band->lo;
           v.hi = band->hi;
         }
+        v.sd = rmsError(window, static_cast<std::uint32_t>(si), m, b, request.asOf, request.bands);
         run.values.push_back(std::move(v));
         break;
       }
@@ -227,7 +256,7 @@ std::int64_t ForecastRun::save(Store &store) {
   run.step();
   id = db.queryInt64("SELECT last_insert_rowid()");
   auto st = db.prepare("INSERT INTO forecast_values (run_id, night, series, lead, otb, forecast, "
-                       "lo, hi, method) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
+                       "lo, hi, method, sd) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10)",
                        true);
   for (const ForecastValue &v : values) {
     st.bind(1, id);
@@ -245,6 +274,10 @@ std::int64_t ForecastRun::save(Store &store) {
     else
       st.bind(8, nullptr);
     st.bind(9, v.method);
+    if (v.sd)
+      st.bind(10, *v.sd);
+    else
+      st.bind(10, nullptr);
     st.step();
   }
   tx.commit();
@@ -268,7 +301,8 @@ std::vector<ForecastRun> ForecastRun::load(Store &store) {
     at[r.id] = runs.size();
     runs.push_back(std::move(r));
   }
-  auto vs = db.prepare("SELECT run_id, night, series, lead, otb, forecast, lo, hi, method FROM "
+  auto vs = db.prepare("SELECT run_id, night, series, lead, otb, forecast, lo, hi, method, sd "
+                       "FROM "
                        "forecast_values ORDER BY run_id, night, rowid");
   while (vs.step()) {
     ForecastValue v;
@@ -282,6 +316,8 @@ std::vector<ForecastRun> ForecastRun::load(Store &store) {
     if (!vs.columnIsNull(7))
       v.hi = vs.columnDouble(7);
     v.method = vs.columnText(8);
+    if (!vs.columnIsNull(9))
+      v.sd = vs.columnDouble(9);
     runs[at.at(vs.columnInt64(0))].values.push_back(std::move(v));
   }
   return runs;

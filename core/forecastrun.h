@@ -8,6 +8,7 @@
 #include "core/errorbands.h"
 #include "core/finding.h"
 #include "core/forecastmethod.h"
+#include "core/unconstrain.h"
 
 #include <cstdint>
 #include <optional>
@@ -41,7 +42,10 @@ struct ForecastValue {
   int otb = 0; ///< OTB(s, t) at the reading date
   double forecast = 0;
   std::optional<double> lo, hi; ///< error band; nullopt without enough backtest errors
-  std::string method;           ///< the method that made it (auto's choice for "auto")
+  /// Spread of the forecast: root mean square of the method's backtest errors in this lead's
+  /// bucket over the band window; nullopt without errors.
+  std::optional<double> sd;
+  std::string method; ///< the method that made it (auto's choice for "auto")
 };
 
 struct ForecastRequest {
@@ -52,7 +56,10 @@ struct ForecastRequest {
   MethodOptions methodOptions;
   AutoSelectOptions autoSelect;
   BandOptions bands;
-  unsigned threads = 0; ///< 0 = every core
+  /// Train on unconstrained history (core/unconstrain.h); nullopt = the finals as observed.
+  std::optional<UnconstrainOptions> unconstrain;
+  const CensorSources *censoring = nullptr; ///< closures and denials; nullptr = none
+  unsigned threads = 0;                     ///< 0 = every core
   ProgressFn progress = nullptr;
   void *progressContext = nullptr;
 };

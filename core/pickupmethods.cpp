@@ -19,7 +19,7 @@ std::optional<Start> start(const ForecastContext &ctx, Date night, std::optional
   done.reset();
   const int h = night - ctx.asOf();
   if (h <= 0) {
-    if (auto f = ctx.final(night))
+    if (auto f = ctx.observedFinal(night))
       done = static_cast<double>(*f);
     return std::nullopt;
   }
@@ -144,7 +144,8 @@ public:
     if (!st)
       return done;
     const int lead = std::min(st->h, ctx.maxDba());
-    long long finals = 0, onBooks = 0;
+    double finals = 0;
+    long long onBooks = 0;
     int n = 0;
     for (Date r : references(ctx, night, ctx.asOf())) {
       auto f = ctx.final(r);
@@ -158,8 +159,8 @@ public:
     if (n == 0)
       return std::nullopt;
     if (onBooks == 0)
-      return nonNegative(st->otbNow + static_cast<double>(finals) / n); // the additive fallback
-    return nonNegative(st->otbNow * (static_cast<double>(finals) / static_cast<double>(onBooks)));
+      return nonNegative(st->otbNow + finals / n); // the additive fallback
+    return nonNegative(st->otbNow * (finals / static_cast<double>(onBooks)));
   }
 };
 

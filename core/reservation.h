@@ -81,6 +81,30 @@ struct CapacityChange {
 
 enum class StlyAlignment { Weekday364, CalendarDate };
 
+/// Bands that class a night by unconstrained demand over capacity (brief section 6): below
+/// shoulderFrom is low, from shoulderFrom is shoulder, from peakFrom is peak. The defaults (70 %
+/// and 90 %) are common practice, no single source.
+struct SeasonBands {
+  double shoulderFrom = 0.70;
+  double peakFrom = 0.90;
+  bool operator==(const SeasonBands &) const = default;
+};
+
+/// The property's decision settings (Property screen; stored with the property).
+struct PropertySettings {
+  SeasonBands seasons;
+  /// Forecast methods train on unconstrained history (censored nights replaced by their
+  /// unconstrained estimate), so sold-out nights do not teach that demand stopped at capacity.
+  bool unconstrainHistory = true;
+  std::string unconstrainMethod = "em"; ///< "em" (expectation–maximisation) or "pd" (projection)
+  /// Cost of walking a guest (relocation, transport, goodwill), in the property's currency;
+  /// 0 = not set (overbooking then needs it on the command line).
+  double walkCost = 0;
+  /// A cancellation made this many days or fewer before arrival counts as late (overbooking).
+  int lateCancelDays = 2;
+  bool operator==(const PropertySettings &) const = default;
+};
+
 struct Property {
   std::string name;
   std::string currency = "EUR";
@@ -88,6 +112,7 @@ struct Property {
   std::vector<CapacityChange> capacityChanges;
   StlyAlignment stly = StlyAlignment::Weekday364;
   double selloutMargin = 0.02; ///< a night within this share of capacity counts as sold out
+  PropertySettings settings;
   /// Rooms available on night s: the latest change dated on or before s, else `capacity`.
   int capacityOn(Date s) const;
   /// The night last year that night s compares with (brief section 4, STLY): s − 364 days
@@ -120,6 +145,16 @@ struct Denial {
   std::string segment;
   DenialKind kind = DenialKind::Denial;
   bool operator==(const Denial &) const = default;
+};
+
+/// Sales of a night were closed (to one segment, or to everyone) from closedOn until reopenedOn
+/// (exclusive; open-ended when empty). A closed night's final is censored demand.
+struct SalesClosure {
+  Date night;
+  std::string segment; ///< empty = the whole hotel
+  Date closedOn;
+  std::optional<Date> reopenedOn;
+  bool operator==(const SalesClosure &) const = default;
 };
 
 struct EventNote {

@@ -1,5 +1,6 @@
 #include "core/store.h"
 
+#include "core/propertysettings.h"
 #include "core/sha256.h"
 #include "core/sqlite.h"
 
@@ -177,9 +178,15 @@ CREATE TABLE forecast_values (
 CREATE INDEX forecast_values_night ON forecast_values (night);
 )sql";
 
+// Each forecast value keeps the spread it was shown with. (The property's decision settings live
+// in property.settings, JSON since schema 1: core/propertysettings.h.)
+constexpr std::string_view kMigration5 = R"sql(
+ALTER TABLE forecast_values ADD COLUMN sd REAL;
+)sql";
+
 // Index i migrates schema version i to i + 1; the size ties the list to kSchemaVersion.
 constexpr std::array<std::string_view, Store::kSchemaVersion> kMigrations = {
-    kMigration1, kMigration2, kMigration3, kMigration4};
+    kMigration1, kMigration2, kMigration3, kMigration4, kMigration5};
 
 constexpr std::string_view kReservationColumns =
     "id, status, booked_on, cancelled_on, arrival, departure, rooms, room_type, segment, channel, "
@@ -279,6 +286,11 @@ void writeProperty(SqliteDb &db, const Property &p) {
   st.bind(4, stlyName(p.stly));
   st.bind(5, p.selloutMargin);
   st.step();
+  if (auto msg = validateSettings(p.settings); !msg.empty())
+    throw StoreError("property settings: " + msg);
+  auto set = db.prepare("UPDATE property SET settings = ?1 WHERE id = 1");
+  set.bind(1, settingsToJson(p.settings));
+  set.step();
   db.exec("DELETE FROM capacity_changes");
   auto ins = db.prepare(
       "INSERT INTO capacity_changes (effective_from, rooms, reason) VALUES (?1, ?2, ?3)");
@@ -561,6 +573,11 @@ Property Store::property() const {
       st.columnText(3) == "calendar-date" ? StlyAlignment::CalendarDate : StlyAlignment::Weekday364;
   p.selloutMargin = st.columnDouble(4);
   st.reset();
+  try {
+    p.settings = settingsFromJson(db_->queryText("SELECT settings FROM property WHERE id = 1"));
+  } catch (const SettingsError &e) {
+    throw StoreError(fmt::format("{}: {}", path_.string(), e.what()));
+  }
   auto ch = db_->prepare(
       "SELECT effective_from, rooms, reason FROM capacity_changes ORDER BY effective_from");
   while (ch.step())
@@ -732,6 +749,32 @@ std::vector<Denial> Store::denials() const {
     out.push_back({st.columnDate(0), st.columnDate(1), st.columnDate(2), st.columnInt(3),
                    st.columnText(4),
                    st.columnText(5) == "regret" ? DenialKind::Regret : DenialKind::Denial});
+  return out;
+}
+
+void Store::addClosure(const SalesClosure &c) {
+  if (c.reopenedOn && *c.reopenedOn < c.closedOn)
+    throw StoreError(fmt::format("closure of {}: reopened {} before closed {}", c.night.toIso(),
+                                 c.reopenedOn->toIso(), c.closedOn.toIso()));
+  writeTransaction(*db_, [&] {
+    ensureCode(stmts_->addSegmentCode, c.segment);
+    auto st = db_->prepare("INSERT INTO sales_closures (night, segment, closed_on, reopened_on) "
+                           "VALUES (?1, ?2, ?3, ?4)");
+    st.bind(1, c.night);
+    st.bindTextOrNull(2, c.segment);
+    st.bind(3, c.closedOn);
+    st.bind(4, c.reopenedOn);
+    st.step();
+  });
+}
+
+std::vector<SalesClosure> Store::closures() const {
+  std::vector<SalesClosure> out;
+  auto st = db_->prepare("SELECT night, segment, closed_on, reopened_on FROM sales_closures "
+                         "ORDER BY night, coalesce(segment, ''), closed_on, id");
+  while (st.step()) {
+    out.push_back({st.columnDate(0), st.columnText(1), st.columnDate(2), st.columnOptionalDate(3)});
+  }
   return out;
 }
 

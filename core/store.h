@@ -62,7 +62,7 @@ struct StoreSummary {
 /// Every write runs inside a transaction; a batch of writes shares one via Transaction.
 class Store {
 public:
-  static constexpr int kSchemaVersion = 4;
+  static constexpr int kSchemaVersion = 5;
 
   /// Creates a new store file; throws StoreError if the file exists.
   static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
@@ -116,7 +116,9 @@ public:
   void addGroupBlock(const GroupBlock &b);     ///< a block with the same id is replaced
   std::vector<GroupBlock> groupBlocks() const; ///< ordered by id
   void addDenial(const Denial &d);
-  std::vector<Denial> denials() const; ///< in the order added
+  std::vector<Denial> denials() const;        ///< in the order added
+  void addClosure(const SalesClosure &c);     ///< the segment row is created if missing
+  std::vector<SalesClosure> closures() const; ///< ordered by night, then segment
   void addEvent(const EventNote &e);
   std::vector<EventNote> events() const; ///< ordered by first day, then in the order added
 

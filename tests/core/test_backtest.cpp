@@ -262,3 +262,53 @@ TEST(Backtest, NothingAfterTheReadingDateChangesAnyForecast) {
     finalsChanged += row->final != kb.at(key)->final;
   EXPECT_GT(finalsChanged, 0);
 }
+
+TEST(Backtest, UnconstrainedHistoryIsUsedAndLooksNoFurtherThanTheReadingDate) {
+  // A peak reading date of the sample (sold-out July nights lie before it): every method trains
+  // on the unconstrained history known at t; denials, closures and bookings after t must change
+  // nothing, and the option must change the forecasts of methods that read finals.
+  const auto &s = sampleCase().sample;
+  const Date t = d(2025, 8, 10);
+  BacktestOptions o = sampleOptions(t);
+  o.methods = {"pickup-add", "mavg", "blend", "holt-winters"};
+  const cb::CensorSources sources{{}, s.denials};
+  o.unconstrain = cb::UnconstrainOptions{};
+  o.censoring = &sources;
+  std::vector<cb::Reservation> later = s.reservations;
+  for (cb::Reservation &r : later)
+    if (r.bookedOn > t)
+      r.rooms += 1;
+  cb::CensorSources laterSources = sources;
+  laterSources.denials.push_back({t + 1, t - 20, t - 10, 30, "FLEX", cb::DenialKind::Denial});
+  laterSources.closures.push_back({t - 5, "", t + 1, std::nullopt});
+  const cb::CurveCube a = Backtest::buildCube(s.reservations, o, cb::SeriesBy::Total);
+  const cb::CurveCube b = Backtest::buildCube(later, o, cb::SeriesBy::Total);
+  const auto ra = Backtest::run(a, s.property, o);
+  BacktestOptions ob = o;
+  ob.censoring = &laterSources;
+  const auto rb = Backtest::run(b, s.property, ob);
+  const auto ka = byKey(ra), kb = byKey(rb);
+  ASSERT_EQ(ka.size(), kb.size());
+  ASSERT_GT(ka.size(), 0u);
+  for (const auto &[key, row] : ka) {
+    auto it = kb.find(key);
+    ASSERT_NE(it, kb.end());
+    EXPECT_EQ(row->forecast, it->second->forecast) << ra.methods[row->method];
+  }
+  // Against the observed history: the unconstrained forecasts are never lower for pickup-add
+  // (every estimate is at least its final) and higher for some rows.
+  BacktestOptions observed = o;
+  observed.unconstrain.reset();
+  const auto ro = Backtest::run(a, s.property, observed);
+  const auto ko = byKey(ro);
+  int higher = 0;
+  for (const auto &[key, row] : ka) {
+    const BacktestRow *plain = ko.at(key);
+    if (ra.methods[row->method] == "pickup-add") {
+      EXPECT_GE(row->forecast, plain->forecast - 1e-9);
+      higher += row->forecast > plain->forecast + 1e-9;
+    }
+    EXPECT_EQ(row->final, plain->final); // still scored against the observed final
+  }
+  EXPECT_GT(higher, 0);
+}

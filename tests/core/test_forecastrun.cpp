@@ -1,11 +1,14 @@
 // Forecast runs and overrides: a naive forecast on a hand-made store with exact values and
 // bands, auto's evidence in the stored parameters, and the store round trip.
+#include "core/forecastrun.h"
+
+#include "core/backtest.h"
+#include "core/store.h"
 #include "testsupport.h"
 
-#include "core/forecastrun.h"
-#include "core/store.h"
-
 #include <nlohmann/json.hpp>
+
+#include <cmath>
 
 using cb::Date;
 
@@ -51,6 +54,8 @@ TEST(ForecastRun, NaiveValuesAndBandsThenStoredAndLoaded) {
     ASSERT_TRUE(v.lo && v.hi) << h;
     EXPECT_DOUBLE_EQ(*v.lo, 3.0);
     EXPECT_DOUBLE_EQ(*v.hi, 3.0);
+    ASSERT_TRUE(v.sd) << h; // and the spread, the root mean square of those errors, is 0
+    EXPECT_DOUBLE_EQ(*v.sd, 0.0);
   }
   run.dataVersion = cb::ForecastRun::dataVersionOf(*store);
   EXPECT_EQ(run.dataVersion, "import 0, 180 reservations");
@@ -66,6 +71,54 @@ TEST(ForecastRun, NaiveValuesAndBandsThenStoredAndLoaded) {
   ASSERT_EQ(runs[0].values.size(), 7u);
   EXPECT_EQ(runs[0].values[5].otb, 0);
   EXPECT_DOUBLE_EQ(*runs[0].values[6].hi, 3.0);
+  EXPECT_DOUBLE_EQ(*runs[0].values[6].sd, 0.0);
+}
+
+TEST(ForecastRun, SpreadIsTheRootMeanSquareOfTheLeadBucketsBacktestErrors) {
+  cbtest::TempDir dir;
+  auto store = handStore(dir);
+  const auto rows = store->reservations();
+  cb::ForecastRequest req;
+  req.asOf = d(2026, 3, 1);
+  req.horizon = 14;
+  req.method = "pickup-add";
+  const cb::ForecastRun run = cb::ForecastRun::compute(rows, store->property(), req);
+  // Recompute from a backtest set up as the run's own (reading dates asOf − 56 − 14 … asOf − 1,
+  // every lead 1 … 14): errors of the lead bucket whose nights lie in the 56 days up to asOf.
+  cb::BacktestOptions bo;
+  bo.from = req.asOf - 56 - 14;
+  bo.to = req.asOf - 1;
+  bo.leads.clear();
+  for (int h = 1; h <= 14; ++h)
+    bo.leads.push_back(h);
+  bo.methods = {"pickup-add"};
+  bo.warmUp = false;
+  bo.withBands = false;
+  cb::CubeOptions co{rows.front().arrival, req.asOf + 14, 14 + 31, cb::SeriesBy::Total, req.asOf};
+  for (const auto &r : rows)
+    co.firstNight = std::min(co.firstNight, r.arrival);
+  const cb::CurveCube cube = cb::CurveCube::build(rows, co);
+  const cb::BacktestResult past = cb::Backtest::run(cube, store->property(), bo);
+  const cb::LeadBuckets buckets;
+  int checked = 0;
+  for (const cb::ForecastValue &v : run.values) {
+    double sum = 0;
+    int n = 0;
+    for (const cb::BacktestRow &r : past.rows)
+      if (buckets.bucketOf(r.lead) == buckets.bucketOf(v.lead) && r.night > req.asOf - 56 &&
+          r.night <= req.asOf) {
+        sum += (r.final - r.forecast) * (r.final - r.forecast);
+        ++n;
+      }
+    if (n < 10) {
+      EXPECT_FALSE(v.sd) << v.lead;
+      continue;
+    }
+    ASSERT_TRUE(v.sd) << v.lead;
+    EXPECT_NEAR(*v.sd, std::sqrt(sum / n), 1e-12) << v.lead;
+    ++checked;
+  }
+  EXPECT_GE(checked, 10);
 }
 
 TEST(ForecastRun, AutoStoresItsChoiceAndEvidence) {

@@ -399,3 +399,28 @@ TEST(PickupMethods, OpenCityMatchesThePandasReference) {
   }
   EXPECT_EQ(checked, 28); // 4 reading dates × 7 leads
 }
+
+TEST(PickupMethods, UnconstrainedHistoryReplacesTheFinalsMethodsLearnFrom) {
+  CurveCube cube = handCube();
+  // The history a method learns from, index 0 = 05-23: the observed finals, except C (06-06,
+  // observed 6) as if its demand had been 9, and one value past the reading date (06-10) that
+  // must stay unreachable.
+  std::vector<double> history;
+  for (Date s = d("2026-05-23"); s <= d("2026-06-12"); ++s)
+    history.push_back(static_cast<double>(cube.final(0, s).value_or(0)));
+  history[static_cast<std::size_t>(d("2026-06-06") - d("2026-05-23"))] = 9;
+  ForecastContext ctx(cube, 0, d("2026-06-08"), property());
+  ctx.useHistory(&history);
+  EXPECT_EQ(*ctx.final(d("2026-06-06")), 9.0);
+  EXPECT_EQ(*ctx.observedFinal(d("2026-06-06")), 6);
+  EXPECT_FALSE(ctx.final(d("2026-06-10"))); // after the reading date, whatever the vector holds
+  EXPECT_EQ(ctx.finals()[14], 9.0);
+  auto m = cb::makePickupMethod("pickup-add", refs(2));
+  m->fit(ctx);
+  // E as of t, h = 12, N = 2 (as AdditiveByHand): C 9 − 1 = 8, B 4 − 2 = 2; F = 4 + 5 = 9.
+  EXPECT_NEAR(*m->forecast(ctx, d("2026-06-20")), 9.0, kTol);
+  // A night already arrived still reports what was observed.
+  EXPECT_EQ(*m->forecast(ctx, d("2026-06-06")), 6.0);
+  ctx.useHistory(nullptr);
+  EXPECT_NEAR(*m->forecast(ctx, d("2026-06-20")), 7.5, kTol);
+}

@@ -1,5 +1,6 @@
 #include "core/store.h"
 
+#include "core/propertysettings.h"
 #include "core/sqlite.h"
 #include "testsupport.h"
 
@@ -32,7 +33,7 @@ cb::Property sampleProperty() {
 bool sameProperty(const cb::Property &a, const cb::Property &b) {
   return a.name == b.name && a.currency == b.currency && a.capacity == b.capacity &&
          a.capacityChanges == b.capacityChanges && a.stly == b.stly &&
-         a.selloutMargin == b.selloutMargin;
+         a.selloutMargin == b.selloutMargin && a.settings == b.settings;
 }
 
 Reservation makeReservation(std::string id) {
@@ -612,6 +613,85 @@ TEST_F(StoreTest, SummaryCountsAHandMadeSet) {
   EXPECT_EQ(s.blocks, 1);
   EXPECT_EQ(s.denials, 2);
   EXPECT_EQ(s.events, 1);
+}
+
+} // namespace
+
+namespace {
+
+TEST_F(StoreTest, SettingsAreKeptWithTheProperty) {
+  cb::Property p = sampleProperty();
+  p.settings.seasons = {0.65, 0.88};
+  p.settings.unconstrainHistory = false;
+  p.settings.unconstrainMethod = "pd";
+  p.settings.walkCost = 240.5;
+  p.settings.lateCancelDays = 3;
+  auto store = Store::create(path, p);
+  store.reset();
+  store = Store::open(path);
+  EXPECT_EQ(store->property().settings, p.settings);
+  // Invalid settings are refused before anything is written.
+  cb::Property bad = p;
+  bad.settings.seasons = {0.9, 0.7};
+  EXPECT_EQ(errorOf([&] { store->setProperty(bad); }),
+            "property settings: season_peak_from must be at least season_shoulder_from");
+  EXPECT_EQ(store->property().settings, p.settings);
+}
+
+TEST_F(StoreTest, SettingsJsonIgnoresUnknownKeysAndKeepsDefaults) {
+  const cb::PropertySettings s = cb::settingsFromJson(R"({"walk_cost": 180, "colour": "blue"})");
+  EXPECT_EQ(s.walkCost, 180);
+  EXPECT_EQ(s.seasons, cb::SeasonBands{}); // default 0.70 / 0.90
+  EXPECT_TRUE(s.unconstrainHistory);
+  EXPECT_EQ(cb::settingsFromJson(cb::settingsToJson(s)), s);
+  EXPECT_THROW(cb::settingsFromJson("[1, 2]"), cb::SettingsError);
+  EXPECT_THROW(cb::settingsFromJson(R"({"walk_cost": "lots"})"), cb::SettingsError);
+  EXPECT_THROW(cb::settingsFromJson(R"({"unconstrain_method": "guess"})"), cb::SettingsError);
+}
+
+TEST_F(StoreTest, HistoryOptionsFollowTheSettings) {
+  cb::Property p;
+  EXPECT_EQ(cb::historyOptions(p)->method, cb::UnconstrainMethod::Em); // default on, EM
+  EXPECT_FALSE(cb::historyOptions(p, true));                           // --naive-history
+  p.settings.unconstrainMethod = "pd";
+  p.settings.seasons = {0.5, 0.8};
+  EXPECT_EQ(cb::historyOptions(p)->method, cb::UnconstrainMethod::ProjectionDetruncation);
+  EXPECT_EQ(cb::historyOptions(p)->seasons, p.settings.seasons);
+  p.settings.unconstrainMethod = "naive";
+  EXPECT_FALSE(cb::historyOptions(p));
+  p.settings.unconstrainMethod = "em";
+  p.settings.unconstrainHistory = false;
+  EXPECT_FALSE(cb::historyOptions(p));
+}
+
+TEST_F(StoreTest, ClosuresRoundTripOrderedByNight) {
+  auto store = Store::create(path, sampleProperty());
+  const cb::SalesClosure whole{d(2025, 7, 12), "", d(2025, 7, 1), std::nullopt};
+  const cb::SalesClosure wholesale{d(2025, 7, 11), "WHL", d(2025, 6, 20), d(2025, 6, 25)};
+  store->addClosure(whole);
+  store->addClosure(wholesale);
+  const auto all = store->closures();
+  ASSERT_EQ(all.size(), 2U);
+  EXPECT_EQ(all[0], wholesale);
+  EXPECT_EQ(all[1], whole);
+  EXPECT_EQ(store->segments().size(), 1U); // WHL created so the foreign key holds
+  EXPECT_EQ(errorOf([&] {
+              store->addClosure({d(2025, 7, 12), "", d(2025, 7, 5), d(2025, 7, 4)});
+            }),
+            "closure of 2025-07-12: reopened 2025-07-04 before closed 2025-07-05");
+  EXPECT_EQ(store->closures().size(), 2U);
+}
+
+TEST_F(StoreTest, SchemaFourStoreGainsTheSpreadColumn) {
+  Store::createAtVersionForTesting(path, sampleProperty(), 4);
+  auto store = Store::open(path);
+  EXPECT_EQ(store->schemaVersion(), 5);
+  EXPECT_EQ(store->property().settings, cb::PropertySettings{}); // the column's '{}' default
+  auto &db = store->sqliteForTesting();
+  EXPECT_EQ(db.queryInt64("SELECT count(*) FROM pragma_table_info('forecast_values') "
+                          "WHERE name = 'sd'"),
+            1);
+  EXPECT_TRUE(fs::exists(path.string() + ".v4.bak"));
 }
 
 } // namespace
