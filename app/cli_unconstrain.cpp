@@ -112,10 +112,11 @@ int runUnconstrain(const UnconstrainArgs &a) {
                              "' (the property's setting); use --method em, pd or naive");
   options.method = *method;
   const cb::CensorSources sources{store->closures(), store->denials()};
-  // Finals only (d = 0): the verb reads nothing but OTB(s, s). The cube refuses a reading
+  // A year of depth: a split series needs the booking curves to tell when the hotel filled
+  // (UnconstrainOptions::minLateShare). The cube refuses a reading
   // date after the newest booking or cancellation, with its own message.
   const cb::CurveCube cube =
-      cb::CurveCube::build(rows, {*firstNight, asOf, 0, *cb::parseSeriesBy(a.by), asOf});
+      cb::CurveCube::build(rows, {*firstNight, asOf, 365, *cb::parseSeriesBy(a.by), asOf});
 
   fmt::memory_buffer out;
   auto to = std::back_inserter(out);

@@ -259,6 +259,40 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
     load.second += capacity;
   }
 
+  // A split series on a full night: censored only when it still books after the hotel filled.
+  // Fill lead: the longest lead at which the hotel's OTB already reached the sell-out line (the
+  // cube's depth at most). Late share: on the series' uncensored nights of the same weekday,
+  // Σ (Final − OTB at the fill lead) / Σ Final. Decided for every night first, then applied, so
+  // the reference nights are those the hotel-level rule left uncensored.
+  // A cube without depth (maxDba 0) cannot tell when the hotel filled: every full night stays
+  // censored then.
+  if (series != 0 && options.minLateShare > 0 && cube.maxDba() > 0) {
+    std::vector<std::size_t> notTurnedAway;
+    for (std::size_t i = 0; i < count; ++i) {
+      if (out[i].reason != CensorReason::Full)
+        continue;
+      const Date s = out[i].night;
+      const double line = (1.0 - property.selloutMargin) * property.capacityOn(s);
+      int fill = 0;
+      for (int d = cube.maxDba(); d >= 0; --d)
+        if (cube.otbRooms(0, s, d) >= line) {
+          fill = d;
+          break;
+        }
+      double late = 0, finals = 0;
+      for (int dir : {-7, 7})
+        for (Date r = s + dir; r >= first && r <= last; r += dir)
+          if (out[index(r)].reason == CensorReason::None) {
+            late += out[index(r)].final - cube.otbRooms(series, r, fill);
+            finals += out[index(r)].final;
+          }
+      if (finals > 0 && late / finals < options.minLateShare)
+        notTurnedAway.push_back(i);
+    }
+    for (std::size_t i : notTurnedAway)
+      out[i].reason = closed[i] ? CensorReason::Closed : CensorReason::None;
+  }
+
   // Groups of comparable nights: weekday × season class of the month, else weekday alone.
   std::vector<std::string> fine(count), coarse(count);
   std::map<std::string, std::vector<std::size_t>> members;

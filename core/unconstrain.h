@@ -66,6 +66,12 @@ struct UnconstrainOptions {
   double tau = 0.5; ///< projection detruncation
   int minGroup = 8; ///< nights a group needs (with ≥ 3 uncensored), else weekday-only, else none
   SeasonBands seasons; ///< classes calendar months for the weekday × season groups
+  /// A split series (segment, channel, room type) counts a full night as censored only when it
+  /// usually still books after the hotel filled: on its uncensored same-weekday nights, the
+  /// share of the final booked within the lead at which the hotel first reached full must be at
+  /// least this. An early-booking segment (groups, tour operators) was not turned away. 0 = every
+  /// full night is censored for every series (also when the cube has no depth, maxDba 0).
+  double minLateShare = 0.05;
 };
 
 /// Why a night counts as censored.

@@ -248,6 +248,7 @@ protected:
     cb::UnconstrainOptions o;
     o.method = m;
     o.useDenials = denials;
+    o.minLateShare = 0; // these cases test the censoring records; see LateShare for the rule
     o.minGroup = 5;
     return o;
   }
@@ -377,7 +378,7 @@ const cb::SampleProperty &sample() {
 cb::CurveCube sampleCube(cb::SeriesBy by) {
   const cb::SampleProperty &s = sample();
   return cb::CurveCube::build(s.reservations,
-                              {s.trueDemand.front().night, s.readingDate, 0, by, s.readingDate});
+                              {s.trueDemand.front().night, s.readingDate, 365, by, s.readingDate});
 }
 
 /// Closures made up for the masking test (the simulator logs none): every 9th night closed to
@@ -418,7 +419,7 @@ TEST(UnconstrainSample, NothingAfterTheReadingDateIsRead) {
       early.denials.push_back(x);
   const cb::CensorSources late{madeUpClosures(), s.denials};
   const Date first = s.trueDemand.front().night;
-  const auto cubeThen = cb::CurveCube::build(cut, {first, t, 0, cb::SeriesBy::Segment, t});
+  const auto cubeThen = cb::CurveCube::build(cut, {first, t, 365, cb::SeriesBy::Segment, t});
   const auto cubeLater = sampleCube(cb::SeriesBy::Segment);
   for (UnconstrainMethod m : {UnconstrainMethod::Em, UnconstrainMethod::ProjectionDetruncation}) {
     cb::UnconstrainOptions o;
@@ -492,4 +493,43 @@ TEST(UnconstrainSample, EmBeatsTheFinalsOnCensoredNights) {
   // (sold ≤ requested), and EM, the method this issue is about, must come closer.
   EXPECT_LT(total[0].bias, 0);
   EXPECT_LT(total[1].mae, total[0].mae);
+}
+
+TEST(LateShare, AnEarlyBookingSegmentWasNotTurnedAwayOnAFullNight) {
+  // Hand case, 4 rooms, no margin. Fridays 2026-03-06, 13, 20: EARLY books 1 room 30 days ahead,
+  // LATE 1 room 2 days ahead (uncensored, total 2). Friday 03-27: EARLY 2 rooms 30 days ahead,
+  // LATE 2 rooms 20 days ahead: the hotel reached 4 rooms 20 days out (fill lead 20).
+  // Late share at lead 20 on the other Fridays: EARLY Σ(1 − 1) / Σ 1 = 0 → below 5 %, not
+  // censored; LATE Σ(1 − 0) / Σ 1 = 1 → censored. The hotel total is censored (full).
+  using cbtest::makeReservation;
+  std::vector<cb::Reservation> rows = {
+      makeReservation("e1", "2026-02-04", "2026-03-06", "2026-03-07", 1, "EARLY"),
+      makeReservation("l1", "2026-03-04", "2026-03-06", "2026-03-07", 1, "LATE"),
+      makeReservation("e2", "2026-02-11", "2026-03-13", "2026-03-14", 1, "EARLY"),
+      makeReservation("l2", "2026-03-11", "2026-03-13", "2026-03-14", 1, "LATE"),
+      makeReservation("e3", "2026-02-18", "2026-03-20", "2026-03-21", 1, "EARLY"),
+      makeReservation("l3", "2026-03-18", "2026-03-20", "2026-03-21", 1, "LATE"),
+      makeReservation("e4", "2026-02-25", "2026-03-27", "2026-03-28", 2, "EARLY"),
+      makeReservation("l4", "2026-03-07", "2026-03-27", "2026-03-28", 2, "LATE"),
+      makeReservation("x", "2026-03-28", "2026-04-10", "2026-04-11", 1, "LATE"), // reading date
+  };
+  cb::Property p;
+  p.capacity = 4;
+  p.selloutMargin = 0;
+  const Date t = d("2026-03-28");
+  const auto cube = cb::CurveCube::build(rows, {d("2026-03-06"), t, 40, cb::SeriesBy::Segment, t});
+  const cb::UnconstrainOptions o; // minLateShare 0.05
+  auto night = [&](const std::string &series) {
+    const auto all = cb::unconstrainSeries(cube, *cube.seriesIndex(series), t, p, {}, o);
+    return all[static_cast<std::size_t>(d("2026-03-27") - d("2026-03-06"))];
+  };
+  EXPECT_EQ(night("ALL").reason, CensorReason::Full);
+  EXPECT_EQ(night("LATE").reason, CensorReason::Full);
+  EXPECT_EQ(night("EARLY").reason, CensorReason::None);
+  EXPECT_EQ(night("EARLY").estimate, 2);
+  // With the rule off every series is censored on a full night.
+  cb::UnconstrainOptions off;
+  off.minLateShare = 0;
+  const auto early = cb::unconstrainSeries(cube, *cube.seriesIndex("EARLY"), t, p, {}, off);
+  EXPECT_EQ(early[21].reason, CensorReason::Full);
 }
