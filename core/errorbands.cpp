@@ -6,7 +6,9 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <map>
 #include <stdexcept>
+#include <tuple>
 #include <vector>
 
 namespace cb {
@@ -17,9 +19,17 @@ ErrorBands::ErrorBands(const ErrorWindow &window, BandOptions options)
     return;
   const std::span<const BacktestRow> all = window_.all();
   base_.reserve(all.size());
-  for (const BacktestRow &r : all)
-    base_.push_back(
-        residualQuantiles(r.series, r.method, window_.buckets().bucketOf(r.lead), r.reading));
+  std::map<std::tuple<std::uint32_t, std::uint32_t, int, std::int32_t>,
+           std::optional<std::pair<double, double>>>
+      memo;
+  for (const BacktestRow &r : all) {
+    const int b = window_.buckets().bucketOf(r.lead);
+    const auto key = std::make_tuple(r.series, r.method, b, r.reading.days());
+    auto it = memo.find(key);
+    if (it == memo.end())
+      it = memo.emplace(key, residualQuantiles(r.series, r.method, b, r.reading)).first;
+    base_.push_back(it->second);
+  }
 }
 
 std::optional<std::pair<double, double>> ErrorBands::residualQuantiles(std::uint32_t series,
