@@ -17,6 +17,10 @@ int main(int argc, char **argv) {
   cbcli::addCurveVerbs(app, verbs);
   cbcli::addPaceVerbs(app, verbs);
   cbcli::addForecastVerbs(app, verbs);
+  cbcli::addUnconstrainVerbs(app, verbs);
+  cbcli::addOutlookVerbs(app, verbs);
+  cbcli::addOverbookVerbs(app, verbs);
+  cbcli::addSettingsVerbs(app, verbs);
 
   try {
     app.parse(argc, argv);

@@ -26,5 +26,9 @@ void addHealthVerbs(CLI::App &app, VerbList &verbs);   // health (cli_health.cpp
 void addCurveVerbs(CLI::App &app, VerbList &verbs);    // curves, finals (cli_curves.cpp)
 void addPaceVerbs(CLI::App &app, VerbList &verbs);     // pace (cli_pace.cpp)
 void addForecastVerbs(CLI::App &app, VerbList &verbs); // forecast, backtest, override
+void addUnconstrainVerbs(CLI::App &app, VerbList &verbs); // unconstrain (cli_unconstrain.cpp)
+void addOutlookVerbs(CLI::App &app, VerbList &verbs);     // outlook, protect (cli_outlook.cpp)
+void addOverbookVerbs(CLI::App &app, VerbList &verbs);    // overbook (cli_overbook.cpp)
+void addSettingsVerbs(CLI::App &app, VerbList &verbs);    // settings (cli_settings.cpp)
 
 } // namespace cbcli
