@@ -7,7 +7,7 @@
 #include <stdexcept>
 
 TEST(Seasons, EdgesBelongToTheHigherClass) {
-  const cb::SeasonBands bands; // 0.70 / 0.90
+  const cb::SeasonBands bands;                                                 // 0.70 / 0.90
   EXPECT_EQ(cb::classifySeason(104.9, 150, bands), cb::SeasonClass::Low);      // 69.9 %
   EXPECT_EQ(cb::classifySeason(105, 150, bands), cb::SeasonClass::Shoulder);   // 70 %
   EXPECT_EQ(cb::classifySeason(134.9, 150, bands), cb::SeasonClass::Shoulder); // 89.9 %
