@@ -2,6 +2,8 @@
 // both as CSV from the curve cube.
 #include "app/cliverbs.h"
 
+#include "app/clicommon.h"
+
 #include "core/curvecube.h"
 #include "core/nativeformat.h"
 #include "core/store.h"
@@ -77,14 +79,6 @@ Request prepare(const CurvesArgs &a, int maxDba, LastUseful lastUseful) {
   if (req.empty)
     req.options.lastNight = req.options.firstNight;
   return req;
-}
-
-/// Spreadsheets run a cell starting with = + - @ as a formula (brief section 8); a series name
-/// comes from the data, so such a name is written with a leading apostrophe.
-std::string csvText(const std::string &text) {
-  if (!text.empty() && std::strchr("=+-@\t\r", text.front()) != nullptr)
-    return cb::quoteCsvField("'" + text);
-  return cb::quoteCsvField(text);
 }
 
 /// Buffered CSV output to stdout or a file; close() reports a failed write.

@@ -2,6 +2,8 @@
 // backtest with its accuracy summary, and expert overrides of nights.
 #include "app/cliverbs.h"
 
+#include "app/clicommon.h"
+
 #include "core/backtest.h"
 #include "core/forecastrun.h"
 #include "core/nativeformat.h"
@@ -52,33 +54,6 @@ struct OverrideArgs {
   double value = 0;
 };
 
-/// Spreadsheets run a cell starting with = + - @ as a formula (brief section 8); a series name
-/// comes from the data, so such a name is written with a leading apostrophe.
-std::string csvText(const std::string &text) {
-  if (!text.empty() && std::strchr("=+-@\t\r", text.front()) != nullptr)
-    return cb::quoteCsvField("'" + text);
-  return cb::quoteCsvField(text);
-}
-
-std::string num(std::optional<double> v, int decimals = 2) {
-  return v ? fmt::format("{:.{}f}", *v, decimals) : std::string();
-}
-
-/// Writes to `path`, or to standard output when it is empty.
-void emit(const std::string &path, const fmt::memory_buffer &text) {
-  if (path.empty()) {
-    std::fwrite(text.data(), 1, text.size(), stdout);
-    if (std::fflush(stdout) != 0)
-      throw std::runtime_error("cannot write standard output");
-    return;
-  }
-  std::ofstream f(path, std::ios::binary);
-  f.write(text.data(), static_cast<std::streamsize>(text.size()));
-  f.close();
-  if (!f)
-    throw std::runtime_error("cannot write " + path);
-}
-
 std::vector<std::string> splitList(const std::string &text) {
   std::vector<std::string> out;
   std::stringstream in(text);
@@ -87,14 +62,6 @@ std::vector<std::string> splitList(const std::string &text) {
     if (!item.empty())
       out.push_back(item);
   return out;
-}
-
-CLI::Validator dateCheck() {
-  return CLI::Validator(
-      [](std::string &text) {
-        return cb::Date::parseIso(text) ? std::string() : "not a date (YYYY-MM-DD): " + text;
-      },
-      "DATE");
 }
 
 void addMethodFlags(CLI::App *cmd, MethodFlags &f) {

@@ -4,6 +4,8 @@
 // caution of core/advice.h.
 #include "app/cliverbs.h"
 
+#include "app/clicommon.h"
+
 #include "core/advice.h"
 #include "core/csvreader.h"
 #include "core/nativeformat.h"
@@ -36,50 +38,6 @@ struct ProtectArgs {
   int sold = 0;
   bool naiveHistory = false;
 };
-
-/// Spreadsheets run a cell starting with = + - @ as a formula (brief section 8); text from the
-/// data (event labels, segment codes) is written with a leading apostrophe then.
-std::string csvText(const std::string &text) {
-  if (!text.empty() && std::strchr("=+-@\t\r", text.front()) != nullptr)
-    return cb::quoteCsvField("'" + text);
-  return cb::quoteCsvField(text);
-}
-
-std::string num(std::optional<double> v, int decimals = 2) {
-  return v ? fmt::format("{:.{}f}", *v, decimals) : std::string();
-}
-
-/// Writes the CSV to `path`, or to standard output when it is empty.
-void emit(const std::string &path, const fmt::memory_buffer &text) {
-  if (path.empty()) {
-    std::fwrite(text.data(), 1, text.size(), stdout);
-    if (std::fflush(stdout) != 0)
-      throw std::runtime_error("cannot write standard output");
-    return;
-  }
-  std::ofstream f(path, std::ios::binary);
-  f.write(text.data(), static_cast<std::streamsize>(text.size()));
-  f.close();
-  if (!f)
-    throw std::runtime_error("cannot write " + path);
-}
-
-/// The notes after a CSV (hints, caution): on standard error while standard output carries the
-/// CSV, so the CSV stays machine-readable; on standard output when the CSV went to a file.
-std::FILE *notesStream(const std::string &out) { return out.empty() ? stderr : stdout; }
-
-CLI::Validator dateCheck() {
-  return CLI::Validator(
-      [](std::string &text) {
-        return cb::Date::parseIso(text) ? std::string() : "not a date (YYYY-MM-DD): " + text;
-      },
-      "DATE");
-}
-
-const char *weekdayName(cb::Date d) {
-  static const char *const names[] = {"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
-  return names[(d.isoWeekday() + 6) % 7];
-}
 
 std::string join(const std::vector<std::string> &items, const char *sep) {
   std::string out;

@@ -2,6 +2,8 @@
 // 15 days, and pace against the same time last year, as CSV.
 #include "app/cliverbs.h"
 
+#include "app/clicommon.h"
+
 #include "core/curvecube.h"
 #include "core/holidaymap.h"
 #include "core/nativeformat.h"
@@ -25,19 +27,6 @@ struct PaceArgs {
 };
 
 constexpr std::array<int, 3> kPickupDays = {1, 7, 15};
-
-const char *weekdayName(cb::Date d) {
-  static const char *const names[] = {"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
-  return names[d.isoWeekday() - 1];
-}
-
-/// Spreadsheets run a cell starting with = + - @ as a formula (brief section 8); a series name
-/// comes from the data, so such a name is written with a leading apostrophe.
-std::string csvText(const std::string &text) {
-  if (!text.empty() && std::strchr("=+-@\t\r", text.front()) != nullptr)
-    return cb::quoteCsvField("'" + text);
-  return cb::quoteCsvField(text);
-}
 
 int runPace(const PaceArgs &a) {
   auto store = cb::Store::open(a.store);

@@ -3,6 +3,8 @@
 // far each method's estimates are from it on the censored nights.
 #include "app/cliverbs.h"
 
+#include "app/clicommon.h"
+
 #include "core/csvreader.h"
 #include "core/curvecube.h"
 #include "core/nativeformat.h"
@@ -24,29 +26,6 @@ struct UnconstrainArgs {
   std::string store, asOf, by = "total", method, truth, out;
   bool noDenials = false;
 };
-
-/// Spreadsheets run a cell starting with = + - @ as a formula (brief section 8); a series name
-/// comes from the data, so such a name is written with a leading apostrophe.
-std::string csvText(const std::string &text) {
-  if (!text.empty() && std::strchr("=+-@\t\r", text.front()) != nullptr)
-    return cb::quoteCsvField("'" + text);
-  return cb::quoteCsvField(text);
-}
-
-/// Writes to `path`, or to standard output when it is empty.
-void emit(const std::string &path, const fmt::memory_buffer &text) {
-  if (path.empty()) {
-    std::fwrite(text.data(), 1, text.size(), stdout);
-    if (std::fflush(stdout) != 0)
-      throw std::runtime_error("cannot write standard output");
-    return;
-  }
-  std::ofstream f(path, std::ios::binary);
-  f.write(text.data(), static_cast<std::streamsize>(text.size()));
-  f.close();
-  if (!f)
-    throw std::runtime_error("cannot write " + path);
-}
 
 /// True demand per (night, series) from a file laid out like sample_property/true_demand.csv
 /// (night,segment,unconstrained_room_nights,sold_room_nights); the total ("ALL") sums segments.

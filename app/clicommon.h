@@ -1,0 +1,33 @@
+// Small pieces every CSV-writing verb shares: safe CSV text, number cells, writing to a file or
+// standard output, the date validator and weekday names.
+#pragma once
+
+#include "core/date.h"
+
+#include <CLI/CLI.hpp>
+#include <fmt/format.h>
+
+#include <cstdio>
+#include <optional>
+#include <string>
+
+namespace cbcli {
+
+/// Spreadsheets run a cell starting with = + - @ (or a tab / CR trick) as a formula (brief
+/// section 8); text from the data (series names, event labels) is then written with a leading
+/// apostrophe. Quoted per RFC 4180 when needed.
+std::string csvText(const std::string &text);
+/// A number cell with `decimals` places, or an empty cell for nullopt.
+std::string num(std::optional<double> v, int decimals = 2);
+/// Writes `text` to `path`, or to standard output when it is empty; throws std::runtime_error
+/// when the write fails.
+void emit(const std::string &path, const fmt::memory_buffer &text);
+/// Where notes after a CSV go (hints, caution): standard error while standard output carries the
+/// CSV, so it stays machine-readable; standard output when the CSV went to a file.
+std::FILE *notesStream(const std::string &out);
+/// CLI11 validator for YYYY-MM-DD.
+CLI::Validator dateCheck();
+/// "Mon" … "Sun".
+const char *weekdayName(cb::Date d);
+
+} // namespace cbcli
