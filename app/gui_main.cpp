@@ -5,11 +5,13 @@
 #include <QApplication>
 #include <QCommandLineParser>
 #include <QDir>
+#include <QLabel>
 #include <QStandardPaths>
 #include <QTimer>
 
 #include <cstdio>
 #include <filesystem>
+#include <memory>
 
 int main(int argc, char **argv) {
   QApplication app(argc, argv);
@@ -28,19 +30,49 @@ int main(int argc, char **argv) {
                           QStringLiteral("Save a PNG of the window once loaded, then quit"),
                           QStringLiteral("FILE"));
   parser.addOption(shot);
+  QCommandLineOption screen(QStringLiteral("screen"),
+                            QStringLiteral("Screen to show: horizon, date-study or property"),
+                            QStringLiteral("NAME"));
+  parser.addOption(screen);
+  QCommandLineOption size(QStringLiteral("size"),
+                          QStringLiteral("Window size, e.g. 1366x768 (for screenshots)"),
+                          QStringLiteral("WxH"));
+  parser.addOption(size);
   parser.process(app);
 
   cbui::MainWindow window;
+  if (parser.isSet(size)) {
+    const QStringList wh = parser.value(size).split(QLatin1Char('x'));
+    if (wh.size() == 2)
+      window.resize(wh[0].toInt(), wh[1].toInt());
+  }
+  if (parser.isSet(screen)) {
+    const QString name = parser.value(screen);
+    window.showScreen(name == QLatin1String("date-study") ? cbui::MainWindow::DateStudyScreen
+                      : name == QLatin1String("property") ? cbui::MainWindow::PropertyScreen
+                                                          : cbui::MainWindow::HorizonScreen);
+  }
   window.show();
 
   if (parser.isSet(shot)) {
     QString file = parser.value(shot);
     QObject::connect(&window, &cbui::MainWindow::sessionLoaded, &window, [&window, file] {
-      QTimer::singleShot(300, &window, [&window, file] {
-        bool ok = window.grab().save(file);
-        std::fprintf(stderr, "%s %s\n", ok ? "saved" : "could not save", qPrintable(file));
-        QApplication::exit(ok ? 0 : 2);
+      // The Horizon's outlook runs in the background after the load: wait for it (at most 2 min).
+      auto *poll = new QTimer(&window);
+      auto started = std::make_shared<int>(0);
+      QObject::connect(poll, &QTimer::timeout, &window, [&window, file, poll, started] {
+        auto *status = window.findChild<QLabel *>(QStringLiteral("horizonStatus"));
+        const bool busy = status && status->text().startsWith(QStringLiteral("Computing"));
+        if (busy && ++*started < 600)
+          return;
+        poll->stop();
+        QTimer::singleShot(300, &window, [&window, file] {
+          bool ok = window.grab().save(file);
+          std::fprintf(stderr, "%s %s\n", ok ? "saved" : "could not save", qPrintable(file));
+          QApplication::exit(ok ? 0 : 2);
+        });
       });
+      poll->start(200);
     });
     QObject::connect(&window, &cbui::MainWindow::loadFailed, &window, [](const QString &msg) {
       std::fprintf(stderr, "curvebench-gui: %s\n", qPrintable(msg));

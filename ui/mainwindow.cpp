@@ -1,24 +1,42 @@
 #include "ui/mainwindow.h"
 
+#include "core/reservationimporter.h"
 #include "core/samplestore.h"
+#include "core/store.h"
 #include "core/textformat.h"
+#include "ui/horizonpanel.h"
 #include "ui/nightcurvechart.h"
 #include "ui/propertysummarypanel.h"
 #include "ui/workbenchsession.h"
 
+#include <QAction>
+#include <QCloseEvent>
 #include <QComboBox>
 #include <QDateEdit>
+#include <QDockWidget>
+#include <QDragEnterEvent>
+#include <QDropEvent>
+#include <QFileDialog>
 #include <QFutureWatcher>
 #include <QHBoxLayout>
 #include <QLabel>
+#include <QListWidget>
+#include <QMenu>
+#include <QMenuBar>
+#include <QMimeData>
 #include <QProgressBar>
+#include <QSettings>
+#include <QShortcut>
 #include <QSpinBox>
-#include <QSplitter>
 #include <QStatusBar>
+#include <QTabWidget>
+#include <QToolBar>
 #include <QToolButton>
+#include <QUrl>
 #include <QVBoxLayout>
 #include <QtConcurrent/QtConcurrentRun>
 
+#include <stdexcept>
 #include <variant>
 
 namespace cbui {
@@ -31,6 +49,10 @@ cb::Date fromQDate(const QDate &d) {
   return cb::Date::fromYmd(d.year(), static_cast<unsigned>(d.month()),
                            static_cast<unsigned>(d.day()));
 }
+QSettings settings() {
+  return QSettings(QStringLiteral("Curvebench"), QStringLiteral("curvebench"));
+}
+const QString kDateFormat = QStringLiteral("ddd d MMM yyyy");
 
 // A background load gives either a session or the message of what went wrong.
 using LoadResult = std::variant<std::shared_ptr<WorkbenchSession>, QString>;
@@ -47,14 +69,113 @@ LoadResult loadSession(const std::filesystem::path &store, bool buildSampleFirst
   }
 }
 
+struct ImportOutcome {
+  bool written = false;
+  QString summary;
+  QStringList findings;
+};
+
+ImportOutcome runImport(const std::filesystem::path &store, const std::filesystem::path &file) {
+  ImportOutcome out;
+  try {
+    auto db = cb::Store::open(store);
+    cb::ImportReport report = cb::importReservations(*db, file);
+    out.written = report.written;
+    for (const auto &f : report.findings)
+      out.findings << QString::fromStdString(f.toString());
+    out.summary =
+        report.written
+            ? QStringLiteral("Imported %1: %2 rows read, %3 added, %4 updated, %5 unchanged")
+                  .arg(QString::fromStdString(file.filename().string()),
+                       QString::fromStdString(cb::formatCount(report.log.rowsRead)),
+                       QString::fromStdString(cb::formatCount(report.log.added)),
+                       QString::fromStdString(cb::formatCount(report.log.updated)),
+                       QString::fromStdString(cb::formatCount(report.log.unchanged)))
+            : QStringLiteral("Nothing imported from %1: %2 finding(s), see Findings")
+                  .arg(QString::fromStdString(file.filename().string()))
+                  .arg(report.findings.size());
+  } catch (const std::exception &e) {
+    out.summary = QStringLiteral("Import failed: %1").arg(QString::fromStdString(e.what()));
+  }
+  return out;
+}
+
 } // namespace
 
 MainWindow::MainWindow(QWidget *parent)
-    : QMainWindow(parent), summary_(new PropertySummaryPanel), chart_(new NightCurveChart),
-      nightEdit_(new QDateEdit), segmentCombo_(new QComboBox), leadSpin_(new QSpinBox),
-      nightLabel_(new QLabel), progress_(new QProgressBar) {
+    : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
+      summary_(new PropertySummaryPanel), chart_(new NightCurveChart), asOfEdit_(new QDateEdit),
+      asOfNote_(new QLabel), nightEdit_(new QDateEdit), segmentCombo_(new QComboBox),
+      leadSpin_(new QSpinBox), nightLabel_(new QLabel), progress_(new QProgressBar),
+      findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new QListWidget) {
   setWindowTitle(QStringLiteral("Curvebench"));
+  setAcceptDrops(true);
 
+  // The reading date, prominent: every figure on every screen is as of this date.
+  auto *bar = addToolBar(QStringLiteral("Reading date"));
+  bar->setObjectName(QStringLiteral("readingDateBar"));
+  bar->setMovable(false);
+  auto *asOfLabel = new QLabel(QStringLiteral("  As of "));
+  QFont big = asOfLabel->font();
+  big.setPointSizeF(big.pointSizeF() * 1.25);
+  big.setBold(true);
+  asOfLabel->setFont(big);
+  asOfEdit_->setFont(big);
+  asOfEdit_->setObjectName(QStringLiteral("asOfEdit"));
+  asOfEdit_->setDisplayFormat(kDateFormat);
+  asOfEdit_->setCalendarPopup(true);
+  asOfEdit_->setToolTip(
+      QStringLiteral("Reading date: the data as it stood at the end of this day"));
+  asOfEdit_->setEnabled(false);
+  bar->addWidget(asOfLabel);
+  bar->addWidget(asOfEdit_);
+  bar->addWidget(asOfNote_);
+
+  tabs_->addTab(horizon_, QStringLiteral("Horizon"));
+  tabs_->addTab(buildDateStudy(), QStringLiteral("Date Study"));
+  tabs_->addTab(summary_, QStringLiteral("Property"));
+  tabs_->setTabToolTip(0, QStringLiteral("The next nights at a glance (Ctrl+1)"));
+  tabs_->setTabToolTip(1, QStringLiteral("One night in depth (Ctrl+2)"));
+  tabs_->setTabToolTip(2, QStringLiteral("The property and its data (Ctrl+3)"));
+  setCentralWidget(tabs_);
+
+  findingsDock_->setObjectName(QStringLiteral("findingsDock"));
+  findingsDock_->setWidget(findings_);
+  addDockWidget(Qt::BottomDockWidgetArea, findingsDock_);
+  findingsDock_->hide();
+
+  progress_->setRange(0, 0);
+  progress_->setMaximumWidth(160);
+  progress_->hide();
+  statusBar()->addPermanentWidget(progress_);
+
+  for (int i = 0; i < 3; ++i) {
+    auto *sc = new QShortcut(QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_1 + i)), this);
+    connect(sc, &QShortcut::activated, this, [this, i] { tabs_->setCurrentIndex(i); });
+  }
+  buildMenus();
+
+  connect(horizon_, &HorizonPanel::nightActivated, this, [this](const QDate &night) {
+    nightEdit_->setDate(night);
+    showScreen(DateStudyScreen);
+  });
+  connect(asOfEdit_, &QDateEdit::dateChanged, this, [this](const QDate &date) {
+    if (session_ && fromQDate(date) != session_->readingDate())
+      setReadingDate(fromQDate(date));
+  });
+  connect(tabs_, &QTabWidget::currentChanged, this,
+          [](int i) { settings().setValue(QStringLiteral("window/screen"), i); });
+
+  resize(1366, 740);
+  QSettings s = settings();
+  restoreGeometry(s.value(QStringLiteral("window/geometry")).toByteArray());
+  restoreState(s.value(QStringLiteral("window/state")).toByteArray());
+  tabs_->setCurrentIndex(s.value(QStringLiteral("window/screen"), 0).toInt());
+}
+
+MainWindow::~MainWindow() = default;
+
+QWidget *MainWindow::buildDateStudy() {
   auto *controls = new QHBoxLayout;
   auto *prev = new QToolButton;
   prev->setText(QStringLiteral("◀"));
@@ -64,7 +185,7 @@ MainWindow::MainWindow(QWidget *parent)
   next->setText(QStringLiteral("▶"));
   next->setToolTip(QStringLiteral("Next night (Alt+Right)"));
   next->setShortcut(QKeySequence(Qt::ALT | Qt::Key_Right));
-  nightEdit_->setDisplayFormat(QStringLiteral("ddd d MMM yyyy"));
+  nightEdit_->setDisplayFormat(kDateFormat);
   nightEdit_->setCalendarPopup(true);
   segmentCombo_->setSizeAdjustPolicy(QComboBox::AdjustToContents);
   leadSpin_->setRange(7, 365);
@@ -82,23 +203,11 @@ MainWindow::MainWindow(QWidget *parent)
   controls->addWidget(leadSpin_);
   controls->addStretch();
 
-  auto *right = new QWidget;
-  auto *rightLayout = new QVBoxLayout(right);
-  rightLayout->addLayout(controls);
-  rightLayout->addWidget(nightLabel_);
-  rightLayout->addWidget(chart_, 1);
-
-  auto *split = new QSplitter;
-  split->addWidget(summary_);
-  split->addWidget(right);
-  split->setStretchFactor(1, 1);
-  summary_->setMinimumWidth(250);
-  setCentralWidget(split);
-
-  progress_->setRange(0, 0);
-  progress_->setMaximumWidth(160);
-  progress_->hide();
-  statusBar()->addPermanentWidget(progress_);
+  auto *page = new QWidget;
+  auto *layout = new QVBoxLayout(page);
+  layout->addLayout(controls);
+  layout->addWidget(nightLabel_);
+  layout->addWidget(chart_, 1);
 
   connect(prev, &QToolButton::clicked, this,
           [this] { nightEdit_->setDate(nightEdit_->date().addDays(-1)); });
@@ -107,10 +216,77 @@ MainWindow::MainWindow(QWidget *parent)
   connect(nightEdit_, &QDateEdit::dateChanged, this, [this] { refreshChart(); });
   connect(segmentCombo_, &QComboBox::currentIndexChanged, this, [this] { refreshChart(); });
   connect(leadSpin_, &QSpinBox::valueChanged, this, [this] { refreshChart(); });
-  resize(1200, 720);
+  return page;
 }
 
-MainWindow::~MainWindow() = default;
+void MainWindow::buildMenus() {
+  QMenu *file = menuBar()->addMenu(QStringLiteral("&File"));
+  QAction *open = file->addAction(QStringLiteral("&Open store…"));
+  open->setShortcut(QKeySequence::Open);
+  connect(open, &QAction::triggered, this, [this] {
+    QString path =
+        QFileDialog::getOpenFileName(this, QStringLiteral("Open a Curvebench store"), QString(),
+                                     QStringLiteral("Curvebench stores (*.curvebench);;"
+                                                    "All files (*)"));
+    if (!path.isEmpty())
+      openStore(std::filesystem::path(path.toStdString()));
+  });
+  QAction *import = file->addAction(QStringLiteral("&Import reservations…"));
+  connect(import, &QAction::triggered, this, [this] {
+    QString path = QFileDialog::getOpenFileName(this, QStringLiteral("Import reservations (CSV)"),
+                                                QString(), QStringLiteral("CSV files (*.csv)"));
+    if (!path.isEmpty())
+      importCsv(std::filesystem::path(path.toStdString()));
+  });
+  recentMenu_ = file->addMenu(QStringLiteral("Open &recent"));
+  rebuildRecentMenu();
+  file->addSeparator();
+  QAction *quit = file->addAction(QStringLiteral("&Quit"));
+  quit->setShortcut(QKeySequence::Quit);
+  connect(quit, &QAction::triggered, this, &QWidget::close);
+
+  QMenu *view = menuBar()->addMenu(QStringLiteral("&View"));
+  const char *names[] = {"&Horizon\tCtrl+1", "&Date Study\tCtrl+2", "&Property\tCtrl+3"};
+  for (int i = 0; i < 3; ++i)
+    connect(view->addAction(QString::fromUtf8(names[i])), &QAction::triggered, this,
+            [this, i] { tabs_->setCurrentIndex(i); });
+  view->addAction(findingsDock_->toggleViewAction());
+}
+
+void MainWindow::rebuildRecentMenu() {
+  recentMenu_->clear();
+  const QStringList recent = settings().value(QStringLiteral("recentStores")).toStringList();
+  for (const QString &path : recent)
+    connect(recentMenu_->addAction(path), &QAction::triggered, this,
+            [this, path] { openStore(std::filesystem::path(path.toStdString())); });
+  recentMenu_->setEnabled(!recent.isEmpty());
+}
+
+void MainWindow::closeEvent(QCloseEvent *event) {
+  QSettings s = settings();
+  s.setValue(QStringLiteral("window/geometry"), saveGeometry());
+  s.setValue(QStringLiteral("window/state"), saveState());
+  QMainWindow::closeEvent(event);
+}
+
+void MainWindow::dragEnterEvent(QDragEnterEvent *event) {
+  for (const QUrl &url : event->mimeData()->urls())
+    if (url.isLocalFile() &&
+        url.toLocalFile().endsWith(QStringLiteral(".csv"), Qt::CaseInsensitive)) {
+      event->acceptProposedAction();
+      return;
+    }
+}
+
+void MainWindow::dropEvent(QDropEvent *event) {
+  for (const QUrl &url : event->mimeData()->urls())
+    if (url.isLocalFile() &&
+        url.toLocalFile().endsWith(QStringLiteral(".csv"), Qt::CaseInsensitive)) {
+      event->acceptProposedAction();
+      importCsv(std::filesystem::path(url.toLocalFile().toStdString()));
+      return;
+    }
+}
 
 void MainWindow::setBusy(const QString &what) {
   progress_->show();
@@ -122,6 +298,12 @@ void MainWindow::setIdle(const QString &message) {
   progress_->hide();
   statusBar()->showMessage(message);
   centralWidget()->setEnabled(true);
+}
+
+void MainWindow::showFindings(const QStringList &lines) {
+  findings_->clear();
+  findings_->addItems(lines);
+  findingsDock_->setVisible(!lines.isEmpty());
 }
 
 void MainWindow::openStore(const std::filesystem::path &store) {
@@ -153,11 +335,50 @@ void MainWindow::startLoad(const std::filesystem::path &store, bool buildSampleF
       [store, buildSampleFirst] { return loadSession(store, buildSampleFirst); }));
 }
 
+void MainWindow::importCsv(const std::filesystem::path &file) {
+  if (!session_ || importing_) {
+    statusBar()->showMessage(session_ ? QStringLiteral("An import is already running")
+                                      : QStringLiteral("Open a store first, then drop the CSV"),
+                             8000);
+    if (!session_)
+      emit importFinished(false);
+    return;
+  }
+  importing_ = true;
+  const std::filesystem::path store = session_->path();
+  progress_->show();
+  statusBar()->showMessage(
+      QStringLiteral("Importing %1 …").arg(QString::fromStdString(file.filename().string())));
+  auto *watcher = new QFutureWatcher<ImportOutcome>(this);
+  connect(watcher, &QFutureWatcher<ImportOutcome>::finished, this, [this, watcher, store] {
+    ImportOutcome r = watcher->result();
+    watcher->deleteLater();
+    importing_ = false;
+    showFindings(r.findings);
+    setIdle(r.summary);
+    emit importFinished(r.written);
+    if (r.written)
+      openStore(store);
+  });
+  watcher->setFuture(QtConcurrent::run([store, file] { return runImport(store, file); }));
+}
+
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   session_ = std::move(session);
   summary_->showSession(*session_);
+  const QString path = QString::fromStdString(session_->path().string());
   setWindowTitle(
       QStringLiteral("Curvebench — %1").arg(QString::fromStdString(session_->property().name)));
+  {
+    QSettings s = settings();
+    QStringList recent = s.value(QStringLiteral("recentStores")).toStringList();
+    recent.removeAll(path);
+    recent.prepend(path);
+    while (recent.size() > 8)
+      recent.removeLast();
+    s.setValue(QStringLiteral("recentStores"), recent);
+  }
+  rebuildRecentMenu();
   {
     QSignalBlocker block(segmentCombo_);
     segmentCombo_->clear();
@@ -170,18 +391,57 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
       segmentCombo_->addItem(name, code);
     }
   }
+  {
+    QSignalBlocker block(asOfEdit_);
+    asOfEdit_->setDate(toQDate(session_->readingDate()));
+    asOfEdit_->setEnabled(true);
+  }
+  asOfNote_->setText(QStringLiteral("   newest data: %1")
+                         .arg(toQDate(session_->newestActivity()).toString(kDateFormat)));
   setIdle(QStringLiteral("%1 reservations loaded; data as of %2")
               .arg(QString::fromStdString(cb::formatCount(session_->summary().reservations)),
-                   QString::fromStdString(session_->readingDate().toIso())));
+                   toQDate(session_->readingDate()).toString(kDateFormat)));
   {
     QSignalBlocker block(nightEdit_);
     nightEdit_->setDate(toQDate(session_->defaultNight()));
   }
+  horizon_->setSession(session_.get());
   refreshChart();
   emit sessionLoaded();
 }
 
+bool MainWindow::setReadingDate(cb::Date date) {
+  if (!session_)
+    return false;
+  try {
+    session_->setReadingDate(date);
+  } catch (const std::invalid_argument &e) {
+    statusBar()->showMessage(
+        QStringLiteral("Reading date not changed: %1").arg(QString::fromUtf8(e.what())), 10000);
+    QSignalBlocker block(asOfEdit_);
+    asOfEdit_->setDate(toQDate(session_->readingDate()));
+    return false;
+  }
+  {
+    QSignalBlocker block(asOfEdit_);
+    asOfEdit_->setDate(toQDate(date));
+  }
+  statusBar()->showMessage(QStringLiteral("Every screen now shows the data as of %1")
+                               .arg(toQDate(date).toString(kDateFormat)));
+  horizon_->setSession(session_.get());
+  refreshChart();
+  return true;
+}
+
 void MainWindow::showNight(cb::Date night) { nightEdit_->setDate(toQDate(night)); }
+
+QDate MainWindow::studiedNight() const { return nightEdit_->date(); }
+
+void MainWindow::showScreen(Screen screen) { tabs_->setCurrentIndex(screen); }
+
+MainWindow::Screen MainWindow::currentScreen() const {
+  return static_cast<Screen>(tabs_->currentIndex());
+}
 
 void MainWindow::refreshChart() {
   if (!session_)
@@ -208,7 +468,7 @@ void MainWindow::refreshChart() {
           : QStringLiteral("past night, final: %1").arg(thisText);
   QString last =
       QStringLiteral("Same night last year (%1): %2 at the same point")
-          .arg(QString::fromStdString(c.lastYearNight.toIso()),
+          .arg(toQDate(c.lastYearNight).toString(kDateFormat),
                lastAtLead ? QStringLiteral("%1 rooms").arg(*lastAtLead) : QStringLiteral("–"));
   if (c.readingLead && lastFinal)
     last += QStringLiteral(", final %1 rooms").arg(*lastFinal);

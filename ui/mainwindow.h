@@ -1,5 +1,7 @@
-// The workbench window: opens a store off the UI thread, shows the property summary and one
-// night's booking curve. Screens of later work plug in beside these panels.
+// The workbench window: opens a store off the UI thread and shows its screens — Horizon (the next
+// N nights), Date Study (one night) and the property — under a prominent, changeable reading date
+// ("As of"). Remembers geometry, the last screen and recent stores; a CSV dropped on the window is
+// imported into the open store in the background, its findings listed in a dock, not a dialog.
 #pragma once
 
 #include <QMainWindow>
@@ -10,23 +12,30 @@
 class QComboBox;
 class QDateEdit;
 class QLabel;
+class QListWidget;
+class QMenu;
 class QProgressBar;
 class QSpinBox;
+class QTabWidget;
+class QDockWidget;
 
+// Forward declarations only: moc of Qt 6.4 cannot parse the C++20 library headers core uses.
 namespace cb {
 class Date;
 }
 
-// Forward declarations only: moc of Qt 6.4 cannot parse the C++20 library headers core uses.
 namespace cbui {
 
 class WorkbenchSession;
 class NightCurveChart;
 class PropertySummaryPanel;
+class HorizonPanel;
 
 class MainWindow : public QMainWindow {
   Q_OBJECT
 public:
+  enum Screen { HorizonScreen = 0, DateStudyScreen = 1, PropertyScreen = 2 };
+
   explicit MainWindow(QWidget *parent = nullptr);
   ~MainWindow() override;
 
@@ -34,31 +43,61 @@ public:
   void openStore(const std::filesystem::path &store);
   /// Builds the sample property's store at `store` (background), then opens it.
   void buildSampleAndOpen(const std::filesystem::path &store);
+  /// Shows `night` in Date Study (does not switch screens).
   void showNight(cb::Date night);
+  /// Looks at every screen as of `date`. Refuses (message in the status bar, returns false) a date
+  /// after the newest booking or cancellation, or before the first booking.
+  bool setReadingDate(cb::Date date);
+  /// Imports a reservation CSV (native format, strict) into the open store in the background,
+  /// then reopens the store; `importFinished` follows.
+  void importCsv(const std::filesystem::path &file);
+  void showScreen(Screen screen);
+  Screen currentScreen() const;
 
   const WorkbenchSession *session() const { return session_.get(); }
   NightCurveChart *chart() const { return chart_; }
   PropertySummaryPanel *summaryPanel() const { return summary_; }
+  HorizonPanel *horizonPanel() const { return horizon_; }
+  /// The night Date Study shows.
+  QDate studiedNight() const;
 
 signals:
   void sessionLoaded();
   void loadFailed(const QString &message);
+  void importFinished(bool written);
+
+protected:
+  void closeEvent(QCloseEvent *event) override;
+  void dragEnterEvent(QDragEnterEvent *event) override;
+  void dropEvent(QDropEvent *event) override;
 
 private:
+  QWidget *buildDateStudy();
+  void buildMenus();
+  void rebuildRecentMenu();
   void startLoad(const std::filesystem::path &store, bool buildSampleFirst, const QString &what);
   void setSession(std::unique_ptr<WorkbenchSession> session);
   void refreshChart();
   void setBusy(const QString &what);
   void setIdle(const QString &message);
+  void showFindings(const QStringList &lines);
 
   std::unique_ptr<WorkbenchSession> session_;
+  QTabWidget *tabs_;
+  HorizonPanel *horizon_;
   PropertySummaryPanel *summary_;
   NightCurveChart *chart_;
+  QDateEdit *asOfEdit_;
+  QLabel *asOfNote_;
   QDateEdit *nightEdit_;
   QComboBox *segmentCombo_;
   QSpinBox *leadSpin_;
   QLabel *nightLabel_;
   QProgressBar *progress_;
+  QMenu *recentMenu_ = nullptr;
+  QDockWidget *findingsDock_;
+  QListWidget *findings_;
+  bool importing_ = false;
 };
 
 } // namespace cbui

@@ -2,6 +2,8 @@
 
 #include "core/bookingcurve.h"
 
+#include <stdexcept>
+
 namespace cbui {
 
 std::unique_ptr<WorkbenchSession> WorkbenchSession::open(const std::filesystem::path &store) {
@@ -12,8 +14,23 @@ std::unique_ptr<WorkbenchSession> WorkbenchSession::open(const std::filesystem::
   s->summary_ = db->summary();
   s->segments_ = db->segments();
   s->reservations_ = db->reservations();
+  s->sources_ = {db->closures(), db->denials()};
+  s->events_ = db->events();
   s->readingDate_ = s->summary_.lastActivity.value_or(cb::Date::fromYmd(2000, 1, 1));
+  s->newest_ = s->readingDate_;
+  s->firstBooked_ = s->summary_.firstBooked.value_or(s->readingDate_);
   return s;
+}
+
+void WorkbenchSession::setReadingDate(cb::Date date) {
+  if (date > newest_)
+    throw std::invalid_argument("reading date " + date.toIso() +
+                                " is after the newest booking or cancellation (" + newest_.toIso() +
+                                ")");
+  if (date < firstBooked_)
+    throw std::invalid_argument("reading date " + date.toIso() + " is before the first booking (" +
+                                firstBooked_.toIso() + ")");
+  readingDate_ = date;
 }
 
 cb::Date WorkbenchSession::defaultNight() const {

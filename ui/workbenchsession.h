@@ -4,6 +4,7 @@
 
 #include "core/reservation.h"
 #include "core/store.h"
+#include "core/unconstrain.h"
 
 #include <filesystem>
 #include <memory>
@@ -39,8 +40,17 @@ public:
   const cb::StoreSummary &summary() const { return summary_; }
   const std::vector<cb::Segment> &segments() const { return segments_; }
   const std::filesystem::path &path() const { return path_; }
-  /// Newest booking or cancellation date: the latest date the data is "as of".
+  const std::vector<cb::Reservation> &reservations() const { return reservations_; }
+  /// Sales closures and denials/regrets: what unconstraining reads (core/unconstrain.h).
+  const cb::CensorSources &censorSources() const { return sources_; }
+  const std::vector<cb::EventNote> &events() const { return events_; }
+  /// The reading date every screen uses ("as of"); starts at the newest activity.
   cb::Date readingDate() const { return readingDate_; }
+  /// Newest booking or cancellation date: the latest reading date the data supports.
+  cb::Date newestActivity() const { return newest_; }
+  /// Looks at the whole workbench as of an earlier date. Throws std::invalid_argument for a date
+  /// after newestActivity() or before the first booking.
+  void setReadingDate(cb::Date date);
   /// A sensible night to show first: the first Saturday two weeks or more after the reading date.
   cb::Date defaultNight() const;
   /// This year's and last year's (STLY alignment of the property) curve of `night`, leads
@@ -53,7 +63,9 @@ private:
   cb::StoreSummary summary_;
   std::vector<cb::Segment> segments_;
   std::vector<cb::Reservation> reservations_;
-  cb::Date readingDate_;
+  cb::CensorSources sources_;
+  std::vector<cb::EventNote> events_;
+  cb::Date readingDate_, newest_, firstBooked_;
 };
 
 } // namespace cbui

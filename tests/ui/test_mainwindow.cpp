@@ -1,19 +1,30 @@
 // The workbench window over a small hand-made store, offscreen: what it shows must match the
 // definitions of brief section 4 computed by hand for these few bookings.
+#include "core/samplestore.h"
 #include "core/store.h"
 #include "testsupport.h"
+#include "ui/horizonmodel.h"
+#include "ui/horizonpanel.h"
 #include "ui/mainwindow.h"
 #include "ui/nightcurvechart.h"
 #include "ui/propertysummarypanel.h"
 #include "ui/workbenchsession.h"
 
+#include <QLabel>
 #include <QSignalSpy>
+#include <QSortFilterProxyModel>
+#include <QStandardPaths>
+#include <QStatusBar>
+#include <QTableView>
 #include <QTest>
 #include <qcustomplot.h>
 
 namespace {
 
 cb::Date d(const char *iso) { return *cb::Date::parseIso(iso); }
+QDate toQ(cb::Date x) {
+  return QDate(x.year(), static_cast<int>(x.month()), static_cast<int>(x.day()));
+}
 
 cb::Reservation res(const char *id, const char *booked, const char *arr, const char *dep, int rooms,
                     const char *seg, const char *cancelled = nullptr) {
@@ -53,6 +64,8 @@ void fillStore(const std::filesystem::path &path) {
 class MainWindowTest : public QObject {
   Q_OBJECT
 private slots:
+  void initTestCase() { QStandardPaths::setTestModeEnabled(true); } // keep the user's settings
+
   void sessionComputesCurvesByDefinition() {
     cbtest::TempDir dir;
     fillStore(dir / "t.curvebench");
@@ -92,6 +105,53 @@ private slots:
     QVERIFY(thisYear->name().contains(QStringLiteral("2026-06-13")));
     QCOMPARE(thisYear->data()->at(thisYear->data()->size() - 1)->value, 5.0);
     QVERIFY(!w.grab().isNull());
+  }
+
+  // The sample property: Horizon fills, the reading date moves every screen (and refuses a date
+  // after the newest activity), a double-click on a night opens it in Date Study.
+  void sampleStoreReadingDateAndNight() {
+    cbtest::TempDir dir;
+    cb::buildSampleStore(dir / "s.curvebench", dir / "files");
+    cbui::MainWindow w;
+    w.resize(1366, 768);
+    w.show();
+    QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
+    w.openStore(dir / "s.curvebench");
+    QVERIFY(loaded.wait(20000));
+    auto *table = w.horizonPanel()->findChild<QTableView *>(QStringLiteral("horizonTable"));
+    auto *status = w.horizonPanel()->findChild<QLabel *>(QStringLiteral("horizonStatus"));
+    QVERIFY(table && status);
+    auto *proxy = qobject_cast<QSortFilterProxyModel *>(table->model());
+    auto *model = static_cast<cbui::HorizonModel *>(proxy->sourceModel());
+    const cb::Date newest = w.session()->newestActivity();
+    QTRY_VERIFY_WITH_TIMEOUT(model->rowCount() > 0 &&
+                                 model->horizon().asOf.toJulianDay() == toQ(newest).toJulianDay(),
+                             30000);
+    QCOMPARE(model->row(0).night, toQ(newest + 1));
+
+    // A week earlier: the rows start the day after the new reading date.
+    QVERIFY(w.setReadingDate(newest - 7));
+    QCOMPARE(w.session()->readingDate(), newest - 7);
+    QTRY_VERIFY_WITH_TIMEOUT(model->rowCount() > 0 && model->row(0).night == toQ(newest - 6),
+                             30000);
+    // After the newest activity: refused, said in the status bar, reading date kept.
+    QVERIFY(!w.setReadingDate(newest + 1));
+    QCOMPARE(w.session()->readingDate(), newest - 7);
+    QVERIFY(w.statusBar()->currentMessage().contains(QStringLiteral("after the newest")));
+
+    // Double-click the fourth row of Horizon: Date Study shows that night.
+    w.showScreen(cbui::MainWindow::HorizonScreen);
+    const QModelIndex cell = proxy->index(3, 1);
+    const QDate night = cell.data(cbui::HorizonModel::kNightRole).toDate();
+    QCOMPARE(night, toQ(newest - 3));
+    QVERIFY(QTest::qWaitForWindowExposed(&w));
+    QVERIFY(table->visualRect(cell).isValid());
+    // A press first: the view opens an item on a double click of the item it saw pressed.
+    QTest::mouseClick(table->viewport(), Qt::LeftButton, {}, table->visualRect(cell).center());
+    QTest::mouseDClick(table->viewport(), Qt::LeftButton, {}, table->visualRect(cell).center());
+    QCOMPARE(w.currentScreen(), cbui::MainWindow::DateStudyScreen);
+    QCOMPARE(w.studiedNight(), night);
+    QVERIFY(w.chart()->plot()->graph(1)->name().contains(night.toString(Qt::ISODate)));
   }
 
   void badStoreReportsFailure() {

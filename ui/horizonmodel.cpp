@@ -1,0 +1,280 @@
+#include "ui/horizonmodel.h"
+
+#include "core/curvecube.h"
+#include "core/forecastrun.h"
+#include "core/holidaymap.h"
+#include "core/outlook.h"
+#include "core/seasons.h"
+#include "core/textformat.h"
+#include "ui/workbenchsession.h"
+
+#include <QBrush>
+#include <QColor>
+#include <QLocale>
+
+#include <algorithm>
+#include <cmath>
+#include <stdexcept>
+
+namespace cbui {
+namespace {
+
+QDate toQDate(cb::Date d) {
+  return QDate(d.year(), static_cast<int>(d.month()), static_cast<int>(d.day()));
+}
+QString qs(const std::string &s) { return QString::fromStdString(s); }
+QString rooms(double v) { return qs(cb::formatCount(std::llround(v))); }
+QString signedRooms(int v) { return v > 0 ? QStringLiteral("+") + rooms(v) : rooms(v); }
+
+// The outlook's own choice (core/outlook.cpp requestFor), repeated for the forecast by segment.
+cb::ForecastRequest segmentRequest(const WorkbenchSession &session, const cb::OutlookOptions &o) {
+  const cb::Property &p = session.property();
+  cb::ForecastRequest r;
+  r.asOf = o.asOf;
+  r.horizon = o.days;
+  r.method = o.method;
+  r.by = cb::SeriesBy::Segment;
+  r.methodOptions = o.methodOptions;
+  if (p.settings.unconstrainHistory) {
+    auto m = cb::parseUnconstrainMethod(p.settings.unconstrainMethod);
+    if (!m)
+      throw std::invalid_argument("unknown unconstraining method \"" +
+                                  p.settings.unconstrainMethod + "\" in the property's settings");
+    cb::UnconstrainOptions u;
+    u.method = *m;
+    u.seasons = p.settings.seasons;
+    r.unconstrain = u;
+    r.censoring = &session.censorSources();
+  }
+  return r;
+}
+
+std::string eventsOn(const std::vector<cb::EventNote> &events, cb::Date night) {
+  std::string out;
+  for (const auto &e : events)
+    if (e.from <= night && night <= e.to)
+      out += (out.empty() ? "" : "; ") + e.label;
+  return out;
+}
+
+} // namespace
+
+HorizonData computeHorizon(const WorkbenchSession &session, int days, const std::string &segment) {
+  const cb::Property &property = session.property();
+  cb::OutlookOptions o;
+  o.asOf = session.readingDate();
+  o.days = days;
+  HorizonData out;
+  out.asOf = toQDate(o.asOf);
+  out.segment = qs(segment);
+  out.currency = qs(property.currency);
+
+  // OTB, pickup and STLY from one cube (by segment when one is chosen): nights from the earliest
+  // STLY night to the last night, leads to days + 7 so the OTB a week earlier is known.
+  const cb::HolidayMap holidays = cb::HolidayMap::fromEvents(session.events());
+  cb::CubeOptions co;
+  co.firstNight = o.asOf + 1;
+  co.lastNight = o.asOf + days;
+  for (cb::Date s = o.asOf + 1; s <= co.lastNight; ++s)
+    co.firstNight = std::min(co.firstNight, holidays.referenceNight(property, s));
+  co.maxDba = days + 7;
+  co.by = segment.empty() ? cb::SeriesBy::Total : cb::SeriesBy::Segment;
+  co.asOf = o.asOf;
+  const cb::CurveCube cube = cb::CurveCube::build(session.reservations(), co);
+  const std::optional<std::size_t> si =
+      segment.empty() ? std::optional<std::size_t>(0) : cube.seriesIndex(segment);
+  std::optional<cb::Date> dataStart;
+  for (const auto &r : session.reservations())
+    if (!r.isDayUse() && (!dataStart || r.arrival < *dataStart))
+      dataStart = r.arrival;
+
+  auto fillOtb = [&](HorizonRow &row, cb::Date night, int lead) {
+    if (!si) // a segment with no booking up to the reading date
+      return;
+    row.otb = cube.otbRooms(*si, night, lead);
+    row.pickup1 = row.otb - cube.otbRooms(*si, night, lead + 1);
+    row.pickup7 = row.otb - cube.otbRooms(*si, night, lead + 7);
+    const cb::Date stly = holidays.referenceNight(property, night);
+    if (dataStart && stly >= *dataStart)
+      row.stlyOtb = cube.otbRooms(*si, stly, lead);
+  };
+
+  if (segment.empty()) {
+    const cb::Outlook outlook = cb::computeOutlook(session.reservations(), property,
+                                                   session.censorSources(), session.events(), o);
+    out.method = qs(outlook.method);
+    for (const cb::OutlookNight &n : outlook.nights) {
+      HorizonRow row;
+      row.night = toQDate(n.night);
+      row.lead = n.lead;
+      row.event = qs(n.event);
+      row.capacity = n.capacity;
+      fillOtb(row, n.night, n.lead);
+      row.otb = n.otb; // the outlook's own figures win (they are the same cells)
+      row.stlyOtb = n.stlyOtb;
+      row.forecast = n.forecast;
+      row.lo = n.lo;
+      row.hi = n.hi;
+      row.constrained = n.constrained;
+      row.occupancy = n.occupancy;
+      row.adr = n.adr;
+      row.pSellout = n.pSellout;
+      row.season = qs(std::string(cb::seasonName(n.season)));
+      for (const auto &f : n.flags)
+        row.flags << qs(f);
+      out.rows.push_back(std::move(row));
+    }
+    return out;
+  }
+
+  const cb::ForecastRun run =
+      cb::ForecastRun::compute(session.reservations(), property, segmentRequest(session, o));
+  out.method = qs(o.method);
+  for (const cb::ForecastValue &v : run.values) {
+    if (v.series != segment)
+      continue;
+    HorizonRow row;
+    row.night = toQDate(v.night);
+    row.lead = v.lead;
+    row.event = qs(eventsOn(session.events(), v.night));
+    row.capacity = property.capacityOn(v.night);
+    fillOtb(row, v.night, v.lead);
+    row.forecast = v.forecast;
+    row.lo = v.lo;
+    row.hi = v.hi;
+    out.rows.push_back(std::move(row));
+  }
+  return out;
+}
+
+HorizonModel::HorizonModel(QObject *parent) : QAbstractTableModel(parent) {}
+
+void HorizonModel::setData(HorizonData data) {
+  beginResetModel();
+  data_ = std::move(data);
+  endResetModel();
+}
+
+int HorizonModel::rowCount(const QModelIndex &parent) const {
+  return parent.isValid() ? 0 : static_cast<int>(data_.rows.size());
+}
+
+int HorizonModel::columnCount(const QModelIndex &parent) const {
+  return parent.isValid() ? 0 : ColumnCount;
+}
+
+QVariant HorizonModel::display(const HorizonRow &r, int column) const {
+  auto opt = [](const auto &v, auto f) { return v ? f(*v) : QString(); };
+  switch (column) {
+  case Night: {
+    QString text = QLocale().toString(r.night, QStringLiteral("ddd d MMM yyyy"));
+    return r.event.isEmpty() ? text : text + QStringLiteral("  ★ ") + r.event;
+  }
+  case Otb: return rooms(r.otb);
+  case Pickup1: return signedRooms(r.pickup1);
+  case Pickup7: return signedRooms(r.pickup7);
+  case Stly: return opt(r.stlyOtb, [](int v) { return rooms(v); });
+  case VsStly: return opt(r.stlyOtb, [&](int v) { return signedRooms(r.otb - v); });
+  case Forecast: return rooms(r.forecast);
+  case Band: return r.lo && r.hi ? rooms(*r.lo) + QStringLiteral("–") + rooms(*r.hi) : QString();
+  case Constrained: return opt(r.constrained, [](double v) { return rooms(v); });
+  case Occupancy: return opt(r.occupancy, [](double v) { return qs(cb::formatPercent(v, 0)); });
+  case Adr:
+    return opt(r.adr,
+               [&](double v) { return qs(cb::formatMoney(v, data_.currency.toStdString())); });
+  case Sellout: return opt(r.pSellout, [](double v) { return qs(cb::formatPercent(v, 0)); });
+  case Season: return r.season;
+  case Flags: return r.flags.join(QStringLiteral(", "));
+  default: return {};
+  }
+}
+
+QVariant HorizonModel::sortValue(const HorizonRow &r, int column) const {
+  auto opt = [](const auto &v) { return v ? QVariant(static_cast<double>(*v)) : QVariant(-1e300); };
+  switch (column) {
+  case Night: return r.night;
+  case Otb: return r.otb;
+  case Pickup1: return r.pickup1;
+  case Pickup7: return r.pickup7;
+  case Stly: return opt(r.stlyOtb);
+  case VsStly: return r.stlyOtb ? QVariant(r.otb - *r.stlyOtb) : QVariant(-1e300);
+  case Forecast: return r.forecast;
+  case Band: return r.lo && r.hi ? QVariant(*r.hi - *r.lo) : QVariant(-1e300);
+  case Constrained: return opt(r.constrained);
+  case Occupancy: return opt(r.occupancy);
+  case Adr: return opt(r.adr);
+  case Sellout: return opt(r.pSellout);
+  case Season: // low < shoulder < peak
+    return r.season == QLatin1String("peak") ? 2 : r.season == QLatin1String("shoulder") ? 1 : 0;
+  case Flags: return r.flags.join(QStringLiteral(", "));
+  default: return {};
+  }
+}
+
+QVariant HorizonModel::data(const QModelIndex &index, int role) const {
+  if (!index.isValid() || index.row() >= rowCount())
+    return {};
+  const HorizonRow &r = row(index.row());
+  const int c = index.column();
+  const bool hotelLevel =
+      c == Constrained || c == Occupancy || c == Adr || c == Sellout || c == Season || c == Flags;
+  switch (role) {
+  case Qt::DisplayRole: return display(r, c);
+  case kSortRole: return sortValue(r, c);
+  case kNightRole: return r.night;
+  case Qt::TextAlignmentRole:
+    return c == Night || c == Season || c == Flags
+               ? QVariant((Qt::AlignLeft | Qt::AlignVCenter).toInt())
+               : QVariant((Qt::AlignRight | Qt::AlignVCenter).toInt());
+  case Qt::ToolTipRole:
+    if (!data_.segment.isEmpty() && hotelLevel)
+      return QStringLiteral("Hotel-level figure: capacity is shared by every segment, so it is "
+                            "shown for All segments only.");
+    if (c == Night)
+      return QStringLiteral("%1 days ahead; capacity %2 rooms%3")
+          .arg(r.lead)
+          .arg(rooms(r.capacity), r.event.isEmpty() ? QString() : QStringLiteral("\n") + r.event);
+    if (c == Stly || c == VsStly)
+      return QStringLiteral("Same time last year: the comparable night last year, at the same "
+                            "number of days before arrival");
+    return {};
+  case Qt::ForegroundRole:
+    if ((c == VsStly && r.stlyOtb && r.otb < *r.stlyOtb) || (c == Pickup1 && r.pickup1 < 0) ||
+        (c == Pickup7 && r.pickup7 < 0))
+      return QBrush(QColor(0xD5, 0x5E, 0x00)); // Okabe–Ito vermillion: behind / lost rooms
+    return {};
+  default: return {};
+  }
+}
+
+QVariant HorizonModel::headerData(int section, Qt::Orientation orientation, int role) const {
+  if (orientation != Qt::Horizontal)
+    return {};
+  static const char *const names[] = {
+      "Night",       "OTB",         "Pickup 1 d", "Pickup 7 d", "STLY OTB", "vs STLY", "Forecast",
+      "Band (80 %)", "Constrained", "Occupancy",  "ADR",        "Sell-out", "Season",  "Flags"};
+  static const char *const tips[] = {
+      "Night of stay, weekday and any event note",
+      "Rooms on the books at the reading date",
+      "Rooms picked up since the day before (net of cancellations)",
+      "Rooms picked up over the last 7 days (net of cancellations)",
+      "Rooms on the books for the comparable night last year, same days before arrival",
+      "OTB less STLY OTB",
+      "Unconstrained demand forecast (rooms), as if capacity were unlimited",
+      "80 % band of the forecast, from backtest errors at this lead",
+      "Expected rooms sold given capacity: E[min(demand, capacity)]",
+      "Constrained forecast / capacity",
+      "Forecast average daily rate",
+      "Probability that demand reaches capacity",
+      "Season class from forecast demand / capacity",
+      "Pace far from last year, likely sell-out, weak night, full, minimum stay"};
+  if (section < 0 || section >= ColumnCount)
+    return {};
+  if (role == Qt::DisplayRole)
+    return QString::fromUtf8(names[section]);
+  if (role == Qt::ToolTipRole)
+    return QString::fromUtf8(tips[section]);
+  return {};
+}
+
+} // namespace cbui
