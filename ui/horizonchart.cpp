@@ -25,7 +25,17 @@ HorizonChart::HorizonChart(QWidget *parent) : QWidget(parent), plot_(new QCustom
   plot_->legend->setVisible(true);
   plot_->legend->setFillOrder(QCPLegend::foColumnsFirst);
   plot_->legend->setWrap(5);
-  plot_->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignLeft);
+  // The legend in a row of its own above the plot, so it never hides a bar.
+  // (Left-aligned at its natural width: a spacer beside it takes the rest of the row.)
+  auto *top = new QCPLayoutGrid;
+  plot_->plotLayout()->insertRow(0);
+  plot_->plotLayout()->addElement(0, 0, top);
+  plot_->plotLayout()->setRowStretchFactor(0, 0.001);
+  top->addElement(0, 0, plot_->legend);
+  top->addElement(0, 1, new QCPLayoutElement(plot_));
+  top->setColumnStretchFactor(0, 0.001);
+  plot_->legend->setBorderPen(Qt::NoPen);
+  plot_->legend->setMargins(QMargins(0, 0, 0, 0));
   QFont small = plot_->legend->font();
   small.setPointSizeF(small.pointSizeF() * 0.85);
   plot_->legend->setFont(small);
@@ -106,7 +116,7 @@ void HorizonChart::showHorizon(const HorizonData &horizon) {
                     QLocale().toString(rows[i].night, QStringLiteral("ddd d MMM")));
   plot_->xAxis->setTicker(ticker);
   plot_->xAxis->setRange(0.4, static_cast<double>(rows.size()) + 0.6);
-  plot_->yAxis->setRange(0, std::max(1.0, top * 1.25)); // head room for the legend
+  plot_->yAxis->setRange(0, std::max(1.0, top * 1.08));
   plot_->replot();
 }
 

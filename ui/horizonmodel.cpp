@@ -182,7 +182,10 @@ QVariant HorizonModel::display(const HorizonRow &r, int column) const {
   case Adr:
     return opt(r.adr,
                [&](double v) { return qs(cb::formatMoney(v, data_.currency.toStdString())); });
-  case Sellout: return opt(r.pSellout, [](double v) { return qs(cb::formatPercent(v, 0)); });
+  case Sellout: // "< 1 %" rather than a "0 %" that reads as impossible
+    return opt(r.pSellout, [](double v) {
+      return v > 0 && v < 0.005 ? QStringLiteral("< 1 %") : qs(cb::formatPercent(v, 0));
+    });
   case Season: return r.season;
   case Flags: return r.flags.join(QStringLiteral(", "));
   default: return {};

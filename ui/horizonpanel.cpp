@@ -6,6 +6,7 @@
 #include "ui/workbenchsession.h"
 
 #include <QComboBox>
+#include <QFontMetrics>
 #include <QFutureWatcher>
 #include <QHBoxLayout>
 #include <QHeaderView>
@@ -107,6 +108,8 @@ HorizonPanel::HorizonPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   d_->table->verticalHeader()->hide();
   d_->table->verticalHeader()->setDefaultSectionSize(d_->table->fontMetrics().height() + 6);
   d_->table->horizontalHeader()->setStretchLastSection(true);
+  d_->table->horizontalHeader()->setStyleSheet(
+      QStringLiteral("QHeaderView::section { padding: 2px 4px; }"));
   d_->table->setWordWrap(false);
 
   auto *caution = new QLabel(QString::fromUtf8(
@@ -157,6 +160,20 @@ HorizonPanel::HorizonPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   connect(d_->segmentCombo, &QComboBox::currentIndexChanged, this,
           [this] { d_->debounce->start(); });
   connect(d_->debounce, &QTimer::timeout, this, [this] { setSession(d_->session); });
+}
+
+// Column widths from the texts (header and cells), tighter than the view's own sizing, so the
+// fourteen columns fit 1366 pixels; the night column stops short of long event notes (they are
+// in its tooltip).
+void HorizonPanel::fitColumns() {
+  const QFontMetrics fm = d_->table->fontMetrics();
+  const int nightCap = fm.horizontalAdvance(QStringLiteral("Wed 30 Sep 2026  ★ Trade fair"));
+  for (int c = 0; c < HorizonModel::ColumnCount; ++c) {
+    int w = fm.horizontalAdvance(d_->model->headerData(c, Qt::Horizontal).toString()) + 22;
+    for (int r = 0; r < d_->model->rowCount(); ++r)
+      w = std::max(w, fm.horizontalAdvance(d_->model->index(r, c).data().toString()) + 12);
+    d_->table->setColumnWidth(c, c == HorizonModel::Night ? std::min(w, nightCap) : w);
+  }
 }
 
 HorizonPanel::~HorizonPanel() { delete d_; }
@@ -218,7 +235,7 @@ void HorizonPanel::setSession(WorkbenchSession *session) {
                   .arg(result.segment);
     d_->status->setText(what);
     d_->model->setData(std::move(result));
-    d_->table->resizeColumnsToContents();
+    fitColumns();
   });
   watcher->setFuture(QtConcurrent::run([copy, days, segment]() -> Result {
     try {

@@ -25,6 +25,7 @@ signals:
   void nightActivated(QDate night);
 
 private:
+  void fitColumns();
   struct Impl;
   Impl *d_;
 };
