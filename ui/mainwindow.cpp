@@ -4,21 +4,19 @@
 #include "core/samplestore.h"
 #include "core/store.h"
 #include "core/textformat.h"
+#include "ui/datestudypanel.h"
 #include "ui/horizonpanel.h"
-#include "ui/nightcurvechart.h"
 #include "ui/propertysummarypanel.h"
 #include "ui/workbenchsession.h"
 
 #include <QAction>
 #include <QCloseEvent>
-#include <QComboBox>
 #include <QDateEdit>
 #include <QDockWidget>
 #include <QDragEnterEvent>
 #include <QDropEvent>
 #include <QFileDialog>
 #include <QFutureWatcher>
-#include <QHBoxLayout>
 #include <QLabel>
 #include <QListWidget>
 #include <QMenu>
@@ -27,13 +25,10 @@
 #include <QProgressBar>
 #include <QSettings>
 #include <QShortcut>
-#include <QSpinBox>
 #include <QStatusBar>
 #include <QTabWidget>
 #include <QToolBar>
-#include <QToolButton>
 #include <QUrl>
-#include <QVBoxLayout>
 #include <QtConcurrent/QtConcurrentRun>
 
 #include <stdexcept>
@@ -104,9 +99,8 @@ ImportOutcome runImport(const std::filesystem::path &store, const std::filesyste
 
 MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
-      summary_(new PropertySummaryPanel), chart_(new NightCurveChart), asOfEdit_(new QDateEdit),
-      asOfNote_(new QLabel), nightEdit_(new QDateEdit), segmentCombo_(new QComboBox),
-      leadSpin_(new QSpinBox), nightLabel_(new QLabel), progress_(new QProgressBar),
+      summary_(new PropertySummaryPanel), dateStudy_(new DateStudyPanel), asOfEdit_(new QDateEdit),
+      asOfNote_(new QLabel), progress_(new QProgressBar),
       findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new QListWidget) {
   setWindowTitle(QStringLiteral("Curvebench"));
   setAcceptDrops(true);
@@ -132,7 +126,7 @@ MainWindow::MainWindow(QWidget *parent)
   bar->addWidget(asOfNote_);
 
   tabs_->addTab(horizon_, QStringLiteral("Horizon"));
-  tabs_->addTab(buildDateStudy(), QStringLiteral("Date Study"));
+  tabs_->addTab(dateStudy_, QStringLiteral("Date Study"));
   tabs_->addTab(summary_, QStringLiteral("Property"));
   tabs_->setTabToolTip(0, QStringLiteral("The next nights at a glance (Ctrl+1)"));
   tabs_->setTabToolTip(1, QStringLiteral("One night in depth (Ctrl+2)"));
@@ -156,8 +150,12 @@ MainWindow::MainWindow(QWidget *parent)
   buildMenus();
 
   connect(horizon_, &HorizonPanel::nightActivated, this, [this](const QDate &night) {
-    nightEdit_->setDate(night);
+    showNight(fromQDate(night));
     showScreen(DateStudyScreen);
+  });
+  connect(dateStudy_, &DateStudyPanel::nightStepRequested, this, [this](int days) {
+    if (night_.isValid())
+      showNight(fromQDate(night_.addDays(days)));
   });
   connect(asOfEdit_, &QDateEdit::dateChanged, this, [this](const QDate &date) {
     if (session_ && fromQDate(date) != session_->readingDate())
@@ -173,50 +171,11 @@ MainWindow::MainWindow(QWidget *parent)
   tabs_->setCurrentIndex(s.value(QStringLiteral("window/screen"), 0).toInt());
 }
 
-MainWindow::~MainWindow() = default;
-
-QWidget *MainWindow::buildDateStudy() {
-  auto *controls = new QHBoxLayout;
-  auto *prev = new QToolButton;
-  prev->setText(QStringLiteral("◀"));
-  prev->setToolTip(QStringLiteral("Previous night (Alt+Left)"));
-  prev->setShortcut(QKeySequence(Qt::ALT | Qt::Key_Left));
-  auto *next = new QToolButton;
-  next->setText(QStringLiteral("▶"));
-  next->setToolTip(QStringLiteral("Next night (Alt+Right)"));
-  next->setShortcut(QKeySequence(Qt::ALT | Qt::Key_Right));
-  nightEdit_->setDisplayFormat(kDateFormat);
-  nightEdit_->setCalendarPopup(true);
-  segmentCombo_->setSizeAdjustPolicy(QComboBox::AdjustToContents);
-  leadSpin_->setRange(7, 365);
-  leadSpin_->setValue(120);
-  leadSpin_->setSuffix(QStringLiteral(" days"));
-  controls->addWidget(new QLabel(QStringLiteral("Night")));
-  controls->addWidget(prev);
-  controls->addWidget(nightEdit_);
-  controls->addWidget(next);
-  controls->addSpacing(12);
-  controls->addWidget(new QLabel(QStringLiteral("Segment")));
-  controls->addWidget(segmentCombo_);
-  controls->addSpacing(12);
-  controls->addWidget(new QLabel(QStringLiteral("Booking window shown")));
-  controls->addWidget(leadSpin_);
-  controls->addStretch();
-
-  auto *page = new QWidget;
-  auto *layout = new QVBoxLayout(page);
-  layout->addLayout(controls);
-  layout->addWidget(nightLabel_);
-  layout->addWidget(chart_, 1);
-
-  connect(prev, &QToolButton::clicked, this,
-          [this] { nightEdit_->setDate(nightEdit_->date().addDays(-1)); });
-  connect(next, &QToolButton::clicked, this,
-          [this] { nightEdit_->setDate(nightEdit_->date().addDays(1)); });
-  connect(nightEdit_, &QDateEdit::dateChanged, this, [this] { refreshChart(); });
-  connect(segmentCombo_, &QComboBox::currentIndexChanged, this, [this] { refreshChart(); });
-  connect(leadSpin_, &QSpinBox::valueChanged, this, [this] { refreshChart(); });
-  return page;
+MainWindow::~MainWindow() {
+  // Date Study's background jobs read the session: stop them while it is still alive (the
+  // panels, children of the window, are destroyed after its members).
+  dateStudy_->setSession(nullptr);
+  horizon_->setSession(nullptr);
 }
 
 void MainWindow::buildMenus() {
@@ -364,6 +323,7 @@ void MainWindow::importCsv(const std::filesystem::path &file) {
 }
 
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
+  dateStudy_->setSession(nullptr); // its jobs must end before the old session goes
   session_ = std::move(session);
   summary_->showSession(*session_);
   const QString path = QString::fromStdString(session_->path().string());
@@ -380,18 +340,6 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   }
   rebuildRecentMenu();
   {
-    QSignalBlocker block(segmentCombo_);
-    segmentCombo_->clear();
-    segmentCombo_->addItem(QStringLiteral("All segments"), QString());
-    for (const auto &s : session_->segments()) {
-      QString code = QString::fromStdString(s.code);
-      QString name = s.name.empty()
-                         ? code
-                         : QStringLiteral("%1 (%2)").arg(QString::fromStdString(s.name), code);
-      segmentCombo_->addItem(name, code);
-    }
-  }
-  {
     QSignalBlocker block(asOfEdit_);
     asOfEdit_->setDate(toQDate(session_->readingDate()));
     asOfEdit_->setEnabled(true);
@@ -401,21 +349,23 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   setIdle(QStringLiteral("%1 reservations loaded; data as of %2")
               .arg(QString::fromStdString(cb::formatCount(session_->summary().reservations)),
                    toQDate(session_->readingDate()).toString(kDateFormat)));
-  {
-    QSignalBlocker block(nightEdit_);
-    nightEdit_->setDate(toQDate(session_->defaultNight()));
-  }
   horizon_->setSession(session_.get());
-  refreshChart();
+  dateStudy_->setSession(session_.get());
+  showNight(session_->defaultNight());
   emit sessionLoaded();
 }
 
 bool MainWindow::setReadingDate(cb::Date date) {
   if (!session_)
     return false;
+  // Date Study's background jobs read the session: let them end before it changes.
+  dateStudy_->setSession(nullptr);
   try {
     session_->setReadingDate(date);
   } catch (const std::invalid_argument &e) {
+    dateStudy_->setSession(session_.get());
+    if (night_.isValid())
+      dateStudy_->setNight(fromQDate(night_));
     statusBar()->showMessage(
         QStringLiteral("Reading date not changed: %1").arg(QString::fromUtf8(e.what())), 10000);
     QSignalBlocker block(asOfEdit_);
@@ -429,52 +379,23 @@ bool MainWindow::setReadingDate(cb::Date date) {
   statusBar()->showMessage(QStringLiteral("Every screen now shows the data as of %1")
                                .arg(toQDate(date).toString(kDateFormat)));
   horizon_->setSession(session_.get());
-  refreshChart();
+  dateStudy_->setSession(session_.get());
+  if (night_.isValid())
+    showNight(fromQDate(night_));
   return true;
 }
 
-void MainWindow::showNight(cb::Date night) { nightEdit_->setDate(toQDate(night)); }
+void MainWindow::showNight(cb::Date night) {
+  night_ = toQDate(night);
+  dateStudy_->setNight(night);
+}
 
-QDate MainWindow::studiedNight() const { return nightEdit_->date(); }
+QDate MainWindow::studiedNight() const { return night_; }
 
 void MainWindow::showScreen(Screen screen) { tabs_->setCurrentIndex(screen); }
 
 MainWindow::Screen MainWindow::currentScreen() const {
   return static_cast<Screen>(tabs_->currentIndex());
-}
-
-void MainWindow::refreshChart() {
-  if (!session_)
-    return;
-  cb::Date night = fromQDate(nightEdit_->date());
-  std::string segment = segmentCombo_->currentData().toString().toStdString();
-  NightCurves c = session_->curves(night, leadSpin_->value(), segment);
-  chart_->showCurves(c);
-  auto valueAt = [](const CurveSeries &series, int lead) -> std::optional<int> {
-    for (std::size_t i = 0; i < series.x.size(); ++i)
-      if (static_cast<int>(-series.x[i]) == lead)
-        return static_cast<int>(series.y[i]);
-    return std::nullopt;
-  };
-  int lead = c.readingLead.value_or(0);
-  QString thisText = c.thisYear.y.empty()
-                         ? QStringLiteral("not yet on sale in the window shown")
-                         : QStringLiteral("%1 rooms").arg(static_cast<int>(c.thisYear.y.back()));
-  auto lastAtLead = valueAt(c.lastYear, lead);
-  auto lastFinal = valueAt(c.lastYear, 0);
-  QString when =
-      c.readingLead
-          ? QStringLiteral("%1 days before arrival, on the books: %2").arg(lead).arg(thisText)
-          : QStringLiteral("past night, final: %1").arg(thisText);
-  QString last =
-      QStringLiteral("Same night last year (%1): %2 at the same point")
-          .arg(toQDate(c.lastYearNight).toString(kDateFormat),
-               lastAtLead ? QStringLiteral("%1 rooms").arg(*lastAtLead) : QStringLiteral("–"));
-  if (c.readingLead && lastFinal)
-    last += QStringLiteral(", final %1 rooms").arg(*lastFinal);
-  nightLabel_->setText(
-      QStringLiteral("<b>%1</b> — %2. %3.")
-          .arg(nightEdit_->date().toString(QStringLiteral("dddd d MMMM yyyy")), when, last));
 }
 
 } // namespace cbui

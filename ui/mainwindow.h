@@ -4,18 +4,17 @@
 // imported into the open store in the background, its findings listed in a dock, not a dialog.
 #pragma once
 
+#include <QDate>
 #include <QMainWindow>
 
 #include <filesystem>
 #include <memory>
 
-class QComboBox;
 class QDateEdit;
 class QLabel;
 class QListWidget;
 class QMenu;
 class QProgressBar;
-class QSpinBox;
 class QTabWidget;
 class QDockWidget;
 
@@ -27,7 +26,7 @@ class Date;
 namespace cbui {
 
 class WorkbenchSession;
-class NightCurveChart;
+class DateStudyPanel;
 class PropertySummaryPanel;
 class HorizonPanel;
 
@@ -55,7 +54,7 @@ public:
   Screen currentScreen() const;
 
   const WorkbenchSession *session() const { return session_.get(); }
-  NightCurveChart *chart() const { return chart_; }
+  DateStudyPanel *dateStudy() const { return dateStudy_; }
   PropertySummaryPanel *summaryPanel() const { return summary_; }
   HorizonPanel *horizonPanel() const { return horizon_; }
   /// The night Date Study shows.
@@ -72,12 +71,10 @@ protected:
   void dropEvent(QDropEvent *event) override;
 
 private:
-  QWidget *buildDateStudy();
   void buildMenus();
   void rebuildRecentMenu();
   void startLoad(const std::filesystem::path &store, bool buildSampleFirst, const QString &what);
   void setSession(std::unique_ptr<WorkbenchSession> session);
-  void refreshChart();
   void setBusy(const QString &what);
   void setIdle(const QString &message);
   void showFindings(const QStringList &lines);
@@ -86,13 +83,10 @@ private:
   QTabWidget *tabs_;
   HorizonPanel *horizon_;
   PropertySummaryPanel *summary_;
-  NightCurveChart *chart_;
+  DateStudyPanel *dateStudy_;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;
-  QDateEdit *nightEdit_;
-  QComboBox *segmentCombo_;
-  QSpinBox *leadSpin_;
-  QLabel *nightLabel_;
+  QDate night_; ///< the night Date Study shows
   QProgressBar *progress_;
   QMenu *recentMenu_ = nullptr;
   QDockWidget *findingsDock_;
