@@ -5,7 +5,7 @@
 #include <QApplication>
 #include <QCommandLineParser>
 #include <QDir>
-#include <QLabel>
+#include <QProgressBar>
 #include <QStandardPaths>
 #include <QTimer>
 
@@ -57,12 +57,14 @@ int main(int argc, char **argv) {
   if (parser.isSet(shot)) {
     QString file = parser.value(shot);
     QObject::connect(&window, &cbui::MainWindow::sessionLoaded, &window, [&window, file] {
-      // The Horizon's outlook runs in the background after the load: wait for it (at most 2 min).
+      // Screens compute in the background after the load: wait for them (at most 2 min).
       auto *poll = new QTimer(&window);
       auto started = std::make_shared<int>(0);
       QObject::connect(poll, &QTimer::timeout, &window, [&window, file, poll, started] {
-        auto *status = window.findChild<QLabel *>(QStringLiteral("horizonStatus"));
-        const bool busy = status && status->text().startsWith(QStringLiteral("Computing"));
+        // Busy while any progress bar shows (Horizon's outlook, Date Study's forecasts, …).
+        bool busy = false;
+        for (const QProgressBar *bar : window.findChildren<QProgressBar *>())
+          busy = busy || bar->isVisible();
         if (busy && ++*started < 600)
           return;
         poll->stop();
