@@ -152,6 +152,17 @@ private slots:
     QCOMPARE(w.studiedNight(), night.addDays(1));
     emit w.dateStudy()->nightStepRequested(-2);
     QCOMPARE(w.studiedNight(), night.addDays(-1));
+
+    // Enter on a row of Horizon opens it too.
+    w.showScreen(cbui::MainWindow::HorizonScreen);
+    w.activateWindow();
+    QVERIFY(QTest::qWaitForWindowActive(&w));
+    const QModelIndex sixth = proxy->index(5, 0);
+    table->setCurrentIndex(sixth);
+    table->setFocus();
+    QTest::keyClick(table, Qt::Key_Return);
+    QCOMPARE(w.currentScreen(), cbui::MainWindow::DateStudyScreen);
+    QCOMPARE(w.studiedNight(), sixth.data(cbui::HorizonModel::kNightRole).toDate());
   }
 
   void badStoreReportsFailure() {
