@@ -41,6 +41,12 @@ HorizonChart::HorizonChart(QWidget *parent) : QWidget(parent), plot_(new QCustom
   plot_->legend->setFont(small);
 }
 
+bool HorizonChart::exportTo(const QString &file) {
+  if (file.endsWith(QStringLiteral(".pdf"), Qt::CaseInsensitive))
+    return plot_->savePdf(file, 1000, 300);
+  return plot_->savePng(file, 1600, 480);
+}
+
 void HorizonChart::showHorizon(const HorizonData &horizon) {
   plot_->clearPlottables();
   plot_->clearItems();

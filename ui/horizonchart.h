@@ -16,6 +16,8 @@ public:
   explicit HorizonChart(QWidget *parent = nullptr);
   void showHorizon(const HorizonData &data);
   QCustomPlot *plot() const { return plot_; }
+  /// Saves the chart as PNG or PDF (by the file's extension); false when it cannot be written.
+  bool exportTo(const QString &file);
 
 private:
   QCustomPlot *plot_;

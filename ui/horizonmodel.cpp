@@ -250,6 +250,47 @@ QVariant HorizonModel::data(const QModelIndex &index, int role) const {
   }
 }
 
+QString HorizonModel::toCsv() const {
+  auto quote = [](QString t) {
+    if (t.contains(QLatin1Char(',')) || t.contains(QLatin1Char('"')) ||
+        t.contains(QLatin1Char('\n'))) {
+      t.replace(QStringLiteral("\""), QStringLiteral("\"\""));
+      t = QLatin1Char('"') + t + QLatin1Char('"');
+    }
+    return t;
+  };
+  auto num = [](const auto &v, int decimals) {
+    return v ? QString::number(static_cast<double>(*v), 'f', decimals) : QString();
+  };
+  QString out = QStringLiteral("night,weekday,event,lead,capacity,otb,pickup_1d,pickup_7d,"
+                               "stly_otb,otb_vs_stly,forecast,forecast_lo,forecast_hi,"
+                               "constrained,occupancy,adr,sellout_probability,season,flags\n");
+  for (const HorizonRow &r : data_.rows) {
+    const std::optional<double> forecast = r.forecast;
+    QStringList cells{r.night.toString(Qt::ISODate),
+                      QLocale::c().toString(r.night, QStringLiteral("ddd")),
+                      quote(r.event),
+                      QString::number(r.lead),
+                      QString::number(r.capacity),
+                      QString::number(r.otb),
+                      QString::number(r.pickup1),
+                      QString::number(r.pickup7),
+                      num(r.stlyOtb, 0),
+                      r.stlyOtb ? QString::number(r.otb - *r.stlyOtb) : QString(),
+                      num(forecast, 2),
+                      num(r.lo, 2),
+                      num(r.hi, 2),
+                      num(r.constrained, 2),
+                      num(r.occupancy, 4),
+                      num(r.adr, 2),
+                      num(r.pSellout, 4),
+                      r.season,
+                      quote(r.flags.join(QStringLiteral("; ")))};
+    out += cells.join(QLatin1Char(',')) + QLatin1Char('\n');
+  }
+  return out;
+}
+
 QVariant HorizonModel::headerData(int section, Qt::Orientation orientation, int role) const {
   if (orientation != Qt::Horizontal)
     return {};

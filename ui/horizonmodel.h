@@ -76,6 +76,9 @@ public:
   void setData(HorizonData data);
   const HorizonData &horizon() const { return data_; }
   const HorizonRow &row(int r) const { return data_.rows[static_cast<std::size_t>(r)]; }
+  /// The rows as CSV for a spreadsheet: plain numbers (no separators, shares as fractions),
+  /// ISO dates, empty cells for figures not available; one header line.
+  QString toCsv() const;
 
   int rowCount(const QModelIndex &parent = {}) const override;
   int columnCount(const QModelIndex &parent = {}) const override;

@@ -6,6 +6,8 @@
 #include "ui/workbenchsession.h"
 
 #include <QComboBox>
+#include <QFile>
+#include <QFileDialog>
 #include <QFontMetrics>
 #include <QFutureWatcher>
 #include <QHBoxLayout>
@@ -13,6 +15,7 @@
 #include <QLabel>
 #include <QLocale>
 #include <QProgressBar>
+#include <QPushButton>
 #include <QSettings>
 #include <QShortcut>
 #include <QSortFilterProxyModel>
@@ -97,6 +100,31 @@ HorizonPanel::HorizonPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   controls->addSpacing(12);
   controls->addWidget(d_->busy);
   controls->addWidget(d_->status, 1);
+  auto *exportTable = new QPushButton(QStringLiteral("Table CSV…"));
+  auto *exportChart = new QPushButton(QStringLiteral("Chart PNG/PDF…"));
+  controls->addWidget(exportTable);
+  controls->addWidget(exportChart);
+  connect(exportTable, &QPushButton::clicked, this, [this] {
+    const QString file = QFileDialog::getSaveFileName(
+        this, QStringLiteral("Save the Horizon table"), QStringLiteral("horizon.csv"),
+        QStringLiteral("CSV files (*.csv)"));
+    if (file.isEmpty())
+      return;
+    QFile f(file);
+    const bool ok = f.open(QIODevice::WriteOnly | QIODevice::Truncate) &&
+                    f.write(d_->model->toCsv().toUtf8()) >= 0;
+    d_->status->setText(ok ? QStringLiteral("Saved %1").arg(file)
+                           : QStringLiteral("Could not write %1").arg(file));
+  });
+  connect(exportChart, &QPushButton::clicked, this, [this] {
+    const QString file = QFileDialog::getSaveFileName(
+        this, QStringLiteral("Save the Horizon chart"), QStringLiteral("horizon.png"),
+        QStringLiteral("PNG image (*.png);;PDF document (*.pdf)"));
+    if (file.isEmpty())
+      return;
+    d_->status->setText(d_->chart->exportTo(file) ? QStringLiteral("Saved %1").arg(file)
+                                                  : QStringLiteral("Could not write %1").arg(file));
+  });
 
   d_->table->setModel(d_->proxy);
   d_->table->setSortingEnabled(true);

@@ -82,6 +82,20 @@ private slots:
     }
   }
 
+  void csvHasPlainNumbers() {
+    cbui::HorizonModel model;
+    model.setData(cbui::computeHorizon(*session_, 7, {}));
+    const QStringList lines = model.toCsv().split(QLatin1Char('\n'), Qt::SkipEmptyParts);
+    QCOMPARE(lines.size(), 8); // header + 7 nights
+    QVERIFY(lines[0].startsWith(QStringLiteral("night,weekday,event,lead,capacity,otb,")));
+    const cbui::HorizonRow &r = model.row(0);
+    const QString expected = QStringLiteral("%1,%2,").arg(
+        r.night.toString(Qt::ISODate), QLocale::c().toString(r.night, QStringLiteral("ddd")));
+    QVERIFY(lines[1].startsWith(expected));
+    QVERIFY(
+        lines[1].contains(QStringLiteral(",%1,%2,%3,").arg(r.capacity).arg(r.otb).arg(r.pickup1)));
+  }
+
   void sortsByRealValues() {
     cbui::HorizonModel model;
     model.setData(cbui::computeHorizon(*session_, 60, {}));
