@@ -3,7 +3,12 @@
 // the segment table with protection, expert overrides and the reservations behind a figure.
 #pragma once
 
+#include <QString>
 #include <QWidget>
+
+class QComboBox;
+class QTableWidget;
+class QListWidget;
 
 // Forward declarations only: moc of Qt 6.4 cannot parse the C++20 library headers core uses.
 namespace cb {
@@ -13,6 +18,8 @@ class Date;
 namespace cbui {
 
 class WorkbenchSession;
+class DateStudyModel;
+class DateStudyChart;
 
 class DateStudyPanel : public QWidget {
   Q_OBJECT
@@ -24,6 +31,26 @@ public:
   void setSession(WorkbenchSession *session);
   /// Shows one night (redraws within the night-switch budget, 50 ms on the sample property).
   void setNight(cb::Date night);
+
+  // For tests and the benchmark.
+  DateStudyModel *model() const;
+  DateStudyChart *chart() const;
+  QComboBox *segmentPicker() const;
+  QComboBox *methodPicker() const;
+  QTableWidget *segmentTable() const;
+  QTableWidget *reservationTable() const;
+  QListWidget *overrideHistory() const;
+  /// True while forecasts (or protection) are being computed in the background.
+  bool isComputing() const;
+  /// The forecast figure as shown ("Forecast 132 rooms …"), empty when none.
+  QString forecastText() const;
+  /// Microseconds the last night switch (setNight) and the last method switch took.
+  qint64 lastNightSwitchMicros() const;
+  qint64 lastMethodSwitchMicros() const;
+  /// What the override form's Save does; returns false (and says why) when it cannot save.
+  bool saveOverride(double value, const QString &reason);
+  /// The drill-down: lists the reservations behind the OTB figure and shows them.
+  void showReservations();
 
 signals:
   /// The user asked for the previous / next night (keyboard or buttons); the window decides.

@@ -1,0 +1,159 @@
+#include "ui/datestudyjobs.h"
+
+#include "core/forecastmethod.h"
+
+#include <QtConcurrent/QtConcurrent>
+
+#include <algorithm>
+
+namespace cbui {
+
+DateStudyJobs::DateStudyJobs(QObject *parent)
+    : watcher_(new QFutureWatcher<ForecastCache>(parent)),
+      protWatcher_(new QFutureWatcher<ProtectionOut>(parent)) {
+  QObject::connect(watcher_, &QFutureWatcherBase::finished, parent, [this] { finished(); });
+  QObject::connect(protWatcher_, &QFutureWatcherBase::finished, parent, [this] {
+    std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
+    if (onBusyChanged)
+      onBusyChanged();
+    if (onProtection && protWatcher_->future().resultCount() > 0)
+      onProtection(protWatcher_->result());
+  });
+}
+
+void DateStudyJobs::reset(WorkbenchSession *session) {
+  stop();
+  cache_.reset();
+  session_ = session;
+}
+
+void DateStudyJobs::stop() {
+  if (progress_)
+    progress_->cancel = true;
+  ++generation_;
+  queue_.clear();
+  // The workers read the session: it must outlive them.
+  for (auto &f : running_)
+    f.waitForFinished();
+  running_.clear();
+  for (auto &f : protRunning_)
+    f.waitForFinished();
+  protRunning_.clear();
+}
+
+void DateStudyJobs::ensure(int lead, int horizon, const std::string &first) {
+  if (!session_ || lead < 1)
+    return;
+  const cb::Date asOf = session_->readingDate();
+  const bool cached = cache_ && cache_->asOf == asOf && lead <= cache_->horizon;
+  const bool coming =
+      forecasting() && running_generation_ == generation_ && asOf_ == asOf && lead <= horizon_;
+  if (cached || coming)
+    return;
+  stop();
+  cache_.reset();
+  asOf_ = asOf;
+  horizon_ = horizon;
+  // One method at a time, quick ones first, so the picker fills within seconds and a method
+  // switch finds most methods cached. mlp (minutes on the sample) and auto run only on demand.
+  static const std::vector<std::string> quickFirst = {
+      "naive",       "last-year",   "mavg", "pickup-add", "pickup-adv",
+      "pickup-mult", "pace-extrap", "ses",  "blend",      "holt-winters",
+      "ar",          "regress",     "mlp"};
+  std::vector<std::string> order = quickFirst;
+  const std::string shown = isSlow(first) ? std::string("pickup-adv") : first;
+  queue_.push_back({shown});
+  if (isSlow(first))
+    queue_.push_back({first});
+  for (const auto &m : order)
+    if (m != shown &&
+        std::find(cb::methodNames().begin(), cb::methodNames().end(), m) != cb::methodNames().end())
+      queue_.push_back({m});
+  startNext();
+}
+
+void DateStudyJobs::requestSlow(const std::string &method) {
+  if (!session_)
+    return;
+  for (const auto &g : queue_)
+    if (g.size() == 1 && g[0] == method)
+      return;
+  queue_.push_front({method});
+  startNext();
+}
+
+void DateStudyJobs::startNext() {
+  if (queue_.empty() || watcher_->isRunning()) {
+    if (onBusyChanged)
+      onBusyChanged();
+    return;
+  }
+  std::vector<std::string> group = queue_.front();
+  queue_.pop_front();
+  progress_ = std::make_shared<CacheProgress>();
+  WorkbenchSession *s = session_;
+  auto prog = progress_;
+  const cb::Date asOf = asOf_;
+  const int horizon = horizon_;
+  auto f = QtConcurrent::run([s, asOf, horizon, group, prog] {
+    return computeForecastCache(*s, asOf, horizon, group, prog.get());
+  });
+  running_.push_back(f);
+  running_generation_ = generation_;
+  watcher_->setFuture(f);
+  if (onStatus)
+    onStatus(group.size() == 1 && group[0] == "auto"
+                 ? QObject::tr("Computing auto (it backtests every method: about a minute)…")
+                 : QObject::tr("Computing the forecasts of %n method(s)…", nullptr,
+                               static_cast<int>(group.size())));
+  if (onBusyChanged)
+    onBusyChanged();
+}
+
+void DateStudyJobs::finished() {
+  std::erase_if(running_, [](const QFuture<ForecastCache> &f) { return f.isFinished(); });
+  if (running_generation_ != generation_ || watcher_->future().resultCount() == 0) {
+    startNext();
+    return;
+  }
+  ForecastCache part = watcher_->result();
+  if (!part.cancelled) {
+    auto merged =
+        cache_ ? std::make_shared<ForecastCache>(*cache_) : std::make_shared<ForecastCache>();
+    merged->asOf = part.asOf;
+    merged->horizon = part.horizon;
+    for (auto &[name, run] : part.runs)
+      merged->runs.insert_or_assign(name, std::move(run));
+    for (auto &[name, bySeries] : part.mae)
+      merged->mae[name] = std::move(bySeries);
+    merged->failures.insert(merged->failures.end(), part.failures.begin(), part.failures.end());
+    cache_ = merged;
+    if (onStatus)
+      onStatus(part.failures.empty() ? QString() : QString::fromStdString(part.failures.front()));
+    if (onCache)
+      onCache();
+  }
+  startNext();
+}
+
+void DateStudyJobs::requestProtection(cb::Date night, const std::string &method) {
+  if (!session_ || protWatcher_->isRunning())
+    return;
+  WorkbenchSession *s = session_;
+  const cb::Date asOf = session_->readingDate();
+  auto f = QtConcurrent::run([s, night, asOf, method] {
+    ProtectionOut out{night, asOf, method, std::nullopt, {}};
+    try {
+      out.protection = computeProtection(*s, asOf, night, method);
+    } catch (const std::exception &e) {
+      out.error = e.what();
+    }
+    return out;
+  });
+  protRunning_.push_back(f);
+  protWatcher_->setFuture(f);
+  if (onBusyChanged)
+    onBusyChanged();
+}
+
+} // namespace cbui

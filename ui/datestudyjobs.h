@@ -1,0 +1,77 @@
+// The Date Study's background work: forecasts of every method for the reading date (computed
+// once, so a method switch reads from the cache) and the protection of the shown night, off the
+// UI thread with progress and cancel. No Q_OBJECT: results come back through callbacks on the UI
+// thread (QFutureWatcher).
+#pragma once
+
+#include "ui/datestudymodel.h"
+
+#include <QFuture>
+#include <QFutureWatcher>
+
+#include <deque>
+#include <functional>
+#include <memory>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace cbui {
+
+/// A protection computed for one night, reading date and method.
+struct ProtectionOut {
+  cb::Date night, asOf;
+  std::string method;
+  std::optional<cb::NightProtection> protection;
+  std::string error;
+};
+
+class DateStudyJobs {
+public:
+  explicit DateStudyJobs(QObject *parent);
+  ~DateStudyJobs() { stop(); }
+  DateStudyJobs(const DateStudyJobs &) = delete;
+  DateStudyJobs &operator=(const DateStudyJobs &) = delete;
+
+  /// Cancels and waits for everything running, forgets the cache, reads `session` from now on.
+  void reset(WorkbenchSession *session);
+  /// Cancels and waits for everything running (the cache stays).
+  void stop();
+  /// Starts the forecasts of every fast method for the session's reading date, up to `horizon`
+  /// nights, `first` first — unless the cache or the work under way already reaches `lead`.
+  void ensure(int lead, int horizon, const std::string &first);
+  /// Queues a slow method ("auto", "mlp"), ahead of the quick ones still waiting.
+  void requestSlow(const std::string &method);
+  /// Methods computed only when asked for (minutes on the sample property).
+  static bool isSlow(const std::string &method) { return method == "auto" || method == "mlp"; }
+  void requestProtection(cb::Date night, const std::string &method);
+
+  std::shared_ptr<const ForecastCache> cache() const { return cache_; }
+  bool forecasting() const { return watcher_->isRunning() || !queue_.empty(); }
+  bool protecting() const { return protWatcher_->isRunning(); }
+  /// Progress of the running group: done and total steps (0, 0 when unknown).
+  int done() const { return progress_ ? progress_->done.load() : 0; }
+  int total() const { return progress_ ? progress_->total.load() : 0; }
+
+  std::function<void(const QString &)> onStatus;           ///< a line for the status bar
+  std::function<void()> onCache;                           ///< cache() grew
+  std::function<void(const ProtectionOut &)> onProtection; ///< a protection is ready
+  std::function<void()> onBusyChanged;                     ///< start or end of work
+
+private:
+  void startNext();
+  void finished();
+  WorkbenchSession *session_ = nullptr;
+  std::shared_ptr<ForecastCache> cache_;
+  std::deque<std::vector<std::string>> queue_;
+  cb::Date asOf_;
+  int horizon_ = 0;
+  int generation_ = 0, running_generation_ = -1;
+  std::shared_ptr<CacheProgress> progress_;
+  QFutureWatcher<ForecastCache> *watcher_;
+  QFutureWatcher<ProtectionOut> *protWatcher_;
+  std::vector<QFuture<ForecastCache>> running_;
+  std::vector<QFuture<ProtectionOut>> protRunning_;
+};
+
+} // namespace cbui
