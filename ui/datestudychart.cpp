@@ -60,12 +60,12 @@ void DateStudyChart::setData(const DateStudyChartData &c) {
   // Comparable band first, so the curves are drawn over it.
   if (!c.bandX.isEmpty()) {
     QCPGraph *low = plot_->addGraph();
-    low->setData(c.bandX, c.bandLow, true);
+    low->setData(c.bandX, c.bandLow); // leads 0 … D run right to left: let QCustomPlot sort
     low->setPen(Qt::NoPen);
     low->removeFromLegend();
     QCPGraph *high = plot_->addGraph();
     high->setName(tr("Comparable nights 10–90 % (%1 nights)").arg(c.bandNights));
-    high->setData(c.bandX, c.bandHigh, true);
+    high->setData(c.bandX, c.bandHigh);
     high->setPen(QPen(bandColour().lighter(130), 1));
     QColor fill = bandColour();
     fill.setAlpha(60);

@@ -2,11 +2,24 @@
 
 #include "core/forecastmethod.h"
 
+#include <QThread>
 #include <QtConcurrent/QtConcurrent>
 
 #include <algorithm>
 
 namespace cbui {
+namespace {
+
+// Background work at idle priority (SCHED_IDLE on Linux) for its duration: on a busy machine
+// the UI thread keeps the CPU and a night switch stays quick.
+struct IdleThread {
+  IdleThread() { QThread::currentThread()->setPriority(QThread::IdlePriority); }
+  ~IdleThread() { QThread::currentThread()->setPriority(QThread::NormalPriority); }
+  IdleThread(const IdleThread &) = delete;
+  IdleThread &operator=(const IdleThread &) = delete;
+};
+
+} // namespace
 
 DateStudyJobs::DateStudyJobs(QObject *parent)
     : watcher_(new QFutureWatcher<ForecastCache>(parent)),
@@ -69,6 +82,8 @@ void DateStudyJobs::ensure(int lead, int horizon, const std::string &first) {
     if (m != shown &&
         std::find(cb::methodNames().begin(), cb::methodNames().end(), m) != cb::methodNames().end())
       queue_.push_back({m});
+  groupsDone_ = 0;
+  groupsTotal_ = static_cast<int>(queue_.size());
   startNext();
 }
 
@@ -79,6 +94,7 @@ void DateStudyJobs::requestSlow(const std::string &method) {
     if (g.size() == 1 && g[0] == method)
       return;
   queue_.push_front({method});
+  ++groupsTotal_;
   startNext();
 }
 
@@ -96,16 +112,20 @@ void DateStudyJobs::startNext() {
   const cb::Date asOf = asOf_;
   const int horizon = horizon_;
   auto f = QtConcurrent::run([s, asOf, horizon, group, prog] {
+    IdleThread idle;
     return computeForecastCache(*s, asOf, horizon, group, prog.get());
   });
   running_.push_back(f);
   running_generation_ = generation_;
   watcher_->setFuture(f);
   if (onStatus)
-    onStatus(group.size() == 1 && group[0] == "auto"
-                 ? QObject::tr("Computing auto (it backtests every method: about a minute)…")
-                 : QObject::tr("Computing the forecasts of %n method(s)…", nullptr,
-                               static_cast<int>(group.size())));
+    onStatus(isSlow(group[0])
+                 ? QObject::tr("Computing %1 in the background (slow: a minute or more)…")
+                       .arg(QString::fromStdString(group[0]))
+                 : QObject::tr("Computing forecasts in the background: %1 (%2 of %3 methods)…")
+                       .arg(QString::fromStdString(group[0]))
+                       .arg(groupsDone_ + 1)
+                       .arg(groupsTotal_));
   if (onBusyChanged)
     onBusyChanged();
 }
@@ -116,6 +136,7 @@ void DateStudyJobs::finished() {
     startNext();
     return;
   }
+  ++groupsDone_;
   ForecastCache part = watcher_->result();
   if (!part.cancelled) {
     auto merged =
@@ -142,6 +163,7 @@ void DateStudyJobs::requestProtection(cb::Date night, const std::string &method)
   WorkbenchSession *s = session_;
   const cb::Date asOf = session_->readingDate();
   auto f = QtConcurrent::run([s, night, asOf, method] {
+    IdleThread idle;
     ProtectionOut out{night, asOf, method, std::nullopt, {}};
     try {
       out.protection = computeProtection(*s, asOf, night, method);

@@ -49,9 +49,9 @@ public:
   std::shared_ptr<const ForecastCache> cache() const { return cache_; }
   bool forecasting() const { return watcher_->isRunning() || !queue_.empty(); }
   bool protecting() const { return protWatcher_->isRunning(); }
-  /// Progress of the running group: done and total steps (0, 0 when unknown).
-  int done() const { return progress_ ? progress_->done.load() : 0; }
-  int total() const { return progress_ ? progress_->total.load() : 0; }
+  /// Progress: methods computed and methods asked for since the last reset of the queue.
+  int done() const { return groupsDone_; }
+  int total() const { return groupsTotal_; }
 
   std::function<void(const QString &)> onStatus;           ///< a line for the status bar
   std::function<void()> onCache;                           ///< cache() grew
@@ -67,6 +67,7 @@ private:
   cb::Date asOf_;
   int horizon_ = 0;
   int generation_ = 0, running_generation_ = -1;
+  int groupsDone_ = 0, groupsTotal_ = 0;
   std::shared_ptr<CacheProgress> progress_;
   QFutureWatcher<ForecastCache> *watcher_;
   QFutureWatcher<ProtectionOut> *protWatcher_;

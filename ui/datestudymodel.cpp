@@ -48,6 +48,8 @@ ForecastCache computeForecastCache(const WorkbenchSession &session, cb::Date asO
     req.censoring = &session.censorSources();
     req.progress = keepGoing;
     req.progressContext = progress;
+    // One worker thread: the other core stays free for the UI (a night switch within 50 ms).
+    req.threads = 1;
     try {
       cb::ForecastRun run =
           cb::ForecastRun::compute(session.reservations(), session.property(), req);
@@ -82,6 +84,7 @@ ForecastCache computeForecastCache(const WorkbenchSession &session, cb::Date asO
   bo.warmUp = false;
   bo.progress = keepGoing;
   bo.progressContext = progress;
+  bo.threads = 1;
   try {
     const cb::CurveCube cube =
         cb::Backtest::buildCube(session.reservations(), bo, cb::SeriesBy::Segment);
@@ -108,6 +111,7 @@ cb::NightProtection computeProtection(const WorkbenchSession &session, cb::Date 
   cb::OutlookOptions o;
   o.asOf = asOf;
   o.method = method;
+  o.threads = 1; // leave a core to the UI
   return cb::protectNight(session.reservations(), session.property(), session.censorSources(), asOf,
                           night, cb::ProtectionMethod::EmsrB, o);
 }
@@ -218,10 +222,14 @@ int DateStudyModel::roomsOnBooks() const {
   return rooms;
 }
 
-std::vector<cb::ForecastOverride> DateStudyModel::overrides() const {
+std::vector<cb::ForecastOverride> DateStudyModel::allOverrides() const {
   auto store = cb::Store::open(s_.path());
+  return cb::overrides(*store);
+}
+
+std::vector<cb::ForecastOverride> DateStudyModel::overrides() const {
   std::vector<cb::ForecastOverride> out;
-  for (auto &o : cb::overrides(*store))
+  for (auto &o : allOverrides())
     if (o.night == night_)
       out.push_back(std::move(o));
   return out;

@@ -101,6 +101,8 @@ public:
   /// Rooms of those reservations (equals the OTB of the night).
   int roomsOnBooks() const;
 
+  /// Every override in the store (opens it: read once, not at every night switch).
+  std::vector<cb::ForecastOverride> allOverrides() const;
   /// Overrides stored for this night (any segment), oldest first. Opens the store.
   std::vector<cb::ForecastOverride> overrides() const;
   /// Stores an override for the night and the selected segment; returns its id.

@@ -94,6 +94,8 @@ struct DateStudyPanel::Impl {
   QLineEdit *ovReason = nullptr;
   QListWidget *ovHistory = nullptr;
   std::vector<double> overrideValues;
+  std::vector<cb::ForecastOverride> allOverrides; // read when the session opens and after a save
+  std::string overrideError;
   qint64 nightMicros = 0, methodMicros = 0;
 
   DateStudyJobs *jobs = nullptr;
@@ -215,11 +217,11 @@ struct DateStudyPanel::Impl {
     base = d;
     const int otb = model->roomsOnBooks();
     drill->setText(tr("Reservations behind OTB (%1 rooms)").arg(count(otb)));
-    title->setText(tr("<b>%1</b> · %2 · reading date %3")
-                       .arg(dayText(model->night()),
-                            model->lead() >= 1 ? tr("%n day(s) ahead", nullptr, model->lead())
-                                               : tr("already stayed"),
-                            dayText(session->readingDate())));
+    title->setText(
+        tr("<b>%1</b> · %2 · reading date %3")
+            .arg(dayText(model->night()),
+                 model->lead() >= 1 ? tr("%1 days ahead").arg(model->lead()) : tr("already stayed"),
+                 dayText(session->readingDate())));
   }
 
   void applyForecast() {
@@ -282,14 +284,22 @@ struct DateStudyPanel::Impl {
         set(l, tr("—"));
     }
     d.overrides = QVector<double>(overrideValues.begin(), overrideValues.end());
+    QElapsedTimer t;
+    t.start();
     chart->setData(d);
+    if (qEnvironmentVariableIsSet("CURVEBENCH_TRACE_DATESTUDY"))
+      qInfo("chart %lld us", static_cast<long long>(t.nsecsElapsed() / 1000));
   }
 
   void loadOverrides() {
     ovHistory->clear();
     overrideValues.clear();
-    try {
-      for (const auto &o : model->overrides()) {
+    if (!overrideError.empty())
+      ovHistory->addItem(tr("Overrides cannot be read: %1").arg(q(overrideError)));
+    for (const auto &o : allOverrides) {
+      if (o.night != model->night())
+        continue;
+      {
         const QString seg = o.segment.empty() ? tr("hotel") : q(o.segment);
         ovHistory->addItem(tr("%1 · %2 · %3 rooms · %4%5")
                                .arg(q(o.createdAt), seg, rooms1(o.value), q(o.reason),
@@ -297,8 +307,16 @@ struct DateStudyPanel::Impl {
         if (o.segment == model->segment())
           overrideValues.push_back(o.value);
       }
+    }
+  }
+
+  void readOverrides() {
+    overrideError.clear();
+    allOverrides.clear();
+    try {
+      allOverrides = model->allOverrides();
     } catch (const std::exception &e) {
-      ovHistory->addItem(tr("Overrides cannot be read: %1").arg(q(std::string(e.what()))));
+      overrideError = e.what();
     }
   }
 
@@ -387,6 +405,8 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   d_->fcDesc->setWordWrap(true);
   d_->fcFormula->setWordWrap(true);
   d_->fcFormula->setStyleSheet(QStringLiteral("font-family: monospace; color: #333;"));
+  d_->fcValue->setWordWrap(true);
+  d_->fcMae->setWordWrap(true);
   d_->fcValue->setStyleSheet(QStringLiteral("font-size: 13pt;"));
   for (QLabel *l : {d_->fcValue, d_->fcMae, d_->fcDesc, d_->fcFormula})
     fcLay->addWidget(l);
@@ -416,7 +436,7 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   grid->addWidget(d_->spill, 3, 1);
   grid->addWidget(new QLabel(tr("Capacity")), 1, 2);
   grid->addWidget(d_->capRooms, 1, 3);
-  grid->addWidget(new QLabel(tr("Rooms sold")), 2, 2);
+  grid->addWidget(new QLabel(tr("Rooms sold (expected)")), 2, 2);
   grid->addWidget(d_->conRooms, 2, 3);
   grid->addWidget(new QLabel(tr("Occupancy")), 3, 2);
   grid->addWidget(d_->occupancy, 3, 3);
@@ -474,6 +494,7 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   d_->resTable->setHorizontalHeaderLabels({tr("Id"), tr("Booked on"), tr("Status"), tr("Segment"),
                                            tr("Rooms"), tr("Arrival"), tr("Nights"), tr("Rate")});
   d_->resTable->verticalHeader()->hide();
+  d_->resTable->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
   d_->resTable->setSortingEnabled(false);
   resLay->addWidget(d_->resSummary);
   resLay->addWidget(d_->resTable, 1);
@@ -489,6 +510,8 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   split->addWidget(scroll);
   split->setStretchFactor(0, 3);
   split->setStretchFactor(1, 2);
+  split->setSizes({800, 520});
+  scroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
   outer->addWidget(split, 1);
 
   auto *foot = new QHBoxLayout;
@@ -594,6 +617,7 @@ void DateStudyPanel::setSession(WorkbenchSession *session) {
                            q(s.code));
     d_->segment->addItem(tr("Stacked segments"), kStacked);
   }
+  d_->readOverrides();
   setNight(same ? keep : session->defaultNight());
 }
 
@@ -603,12 +627,22 @@ void DateStudyPanel::setNight(cb::Date night) {
   QElapsedTimer t;
   t.start();
   d_->model->setNight(night);
+  const bool trace = qEnvironmentVariableIsSet("CURVEBENCH_TRACE_DATESTUDY");
+  auto lap = [&](const char *what) {
+    if (trace)
+      qInfo("%s %lld us", what, static_cast<long long>(t.nsecsElapsed() / 1000));
+  };
   d_->jobs->ensure(d_->model->lead(), d_->model->horizonNeeded(), d_->methodName());
   d_->model->setCache(d_->jobs->cache());
+  lap("ensure");
   d_->redraw();
+  lap("redraw");
   d_->loadOverrides();
+  lap("overrides");
   d_->applyForecast();
+  lap("forecast");
   d_->fillReservations();
+  lap("reservations");
   d_->requestProtection();
   d_->nightMicros = t.nsecsElapsed() / 1000;
 }
@@ -642,6 +676,7 @@ bool DateStudyPanel::saveOverride(double value, const QString &reason) {
     return false;
   }
   d_->ovReason->clear();
+  d_->readOverrides();
   d_->loadOverrides();
   d_->applyForecast();
   d_->status->setText(tr("Override saved."));

@@ -13,6 +13,7 @@
 #include <QComboBox>
 #include <QElapsedTimer>
 #include <QListWidget>
+#include <QTabWidget>
 #include <QTableWidget>
 #include <QTest>
 #include <qcustomplot.h>
@@ -159,6 +160,7 @@ private slots:
       panel.methodPicker()->setCurrentIndex(
           panel.methodPicker()->findData(QStringLiteral("pickup-adv")));
       QTRY_VERIFY_WITH_TIMEOUT(panel.segmentTable()->rowCount() > 0, 300000);
+      panel.findChild<QTabWidget *>()->setCurrentIndex(0); // segments, protection, caution
       QVERIFY(panel.grab().save(QString::fromLocal8Bit(shots) +
                                 QStringLiteral("/date-study-sample.png")));
     }
