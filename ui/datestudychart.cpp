@@ -2,6 +2,7 @@
 
 #include "ui/palette.h"
 
+#include <QElapsedTimer>
 #include <QToolTip>
 #include <QVBoxLayout>
 #include <qcustomplot.h>
@@ -174,7 +175,12 @@ void DateStudyChart::setData(const DateStudyChartData &c) {
 void DateStudyChart::resetView() {
   plot_->xAxis->setRange(data_.xMin - 1, 1);
   plot_->yAxis->setRange(0, yMax_ * 1.12 + 1);
+  QElapsedTimer t;
+  t.start();
   plot_->replot();
+  if (qEnvironmentVariableIsSet("CURVEBENCH_TRACE_DATESTUDY"))
+    qInfo("replot %lld us (%g ms per layer)", static_cast<long long>(t.nsecsElapsed() / 1000),
+          plot_->replotTime());
 }
 
 QString DateStudyChart::valuesAt(double x) const {

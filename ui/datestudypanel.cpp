@@ -344,6 +344,7 @@ struct DateStudyPanel::Impl {
                                  r.currency.empty() ? session->property().currency : r.currency)),
                true));
     }
+    resTable->resizeColumnsToContents();
     resSummary->setText(tr("%1 reservations, %2 rooms on the books for %3 (%4) as of %5")
                             .arg(count(static_cast<double>(rows.size())), count(total),
                                  dayText(model->night()),
@@ -494,11 +495,14 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   d_->resTable->setHorizontalHeaderLabels({tr("Id"), tr("Booked on"), tr("Status"), tr("Segment"),
                                            tr("Rooms"), tr("Arrival"), tr("Nights"), tr("Rate")});
   d_->resTable->verticalHeader()->hide();
-  d_->resTable->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
   d_->resTable->setSortingEnabled(false);
   resLay->addWidget(d_->resSummary);
   resLay->addWidget(d_->resTable, 1);
   d_->tabs->addTab(resPage, tr("Reservations"));
+  connect(d_->tabs, &QTabWidget::currentChanged, this, [this](int i) {
+    if (i == 2 && d_->model)
+      d_->fillReservations();
+  });
   col->addWidget(d_->tabs, 1);
 
   d_->drill = new QPushButton(tr("Reservations behind OTB"));
@@ -641,7 +645,8 @@ void DateStudyPanel::setNight(cb::Date night) {
   lap("overrides");
   d_->applyForecast();
   lap("forecast");
-  d_->fillReservations();
+  if (d_->tabs->currentIndex() == 2) // the drill-down list is filled only when shown
+    d_->fillReservations();
   lap("reservations");
   d_->requestProtection();
   d_->nightMicros = t.nsecsElapsed() / 1000;
