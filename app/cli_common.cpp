@@ -47,4 +47,17 @@ const char *weekdayName(cb::Date d) {
   return names[d.isoWeekday() - 1];
 }
 
+std::unique_ptr<cb::Store> openWithRows(const std::string &path,
+                                        std::vector<cb::Reservation> &rows) {
+  auto store = cb::Store::open(path);
+  rows = store->reservations();
+  if (rows.empty())
+    throw std::runtime_error(path + " has no reservations, so there is nothing to forecast from");
+  return store;
+}
+
+cb::CensorSources censorSources(const cb::Store &store) {
+  return {store.closures(), store.denials()};
+}
+
 } // namespace cbcli

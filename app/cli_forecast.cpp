@@ -99,15 +99,6 @@ std::string methodHelp() {
   return text;
 }
 
-std::unique_ptr<cb::Store> openWithRows(const std::string &path,
-                                        std::vector<cb::Reservation> &rows) {
-  auto store = cb::Store::open(path);
-  rows = store->reservations();
-  if (rows.empty())
-    throw std::runtime_error(path + " has no reservations, so there is nothing to forecast from");
-  return store;
-}
-
 int runForecast(const ForecastArgs &a) {
   std::vector<cb::Reservation> rows;
   auto store = openWithRows(a.store, rows);
@@ -119,7 +110,7 @@ int runForecast(const ForecastArgs &a) {
   req.methodOptions = a.flags.options();
   req.autoSelect.criterion = *cb::parseCriterion(a.flags.criterion);
   const cb::Property property = store->property();
-  const cb::CensorSources sources{store->closures(), store->denials()};
+  const cb::CensorSources sources = censorSources(*store);
   req.unconstrain = cb::historyOptions(property, a.flags.naiveHistory);
   req.censoring = &sources;
   cb::ForecastRun run = cb::ForecastRun::compute(rows, property, req);
@@ -159,7 +150,7 @@ int runBacktest(const BacktestArgs &a) {
     throw std::runtime_error("--from " + a.from + " is after --to " + a.to);
   const cb::CurveCube cube = cb::Backtest::buildCube(rows, o, *cb::parseSeriesBy(a.by));
   const cb::Property property = store->property();
-  const cb::CensorSources sources{store->closures(), store->denials()};
+  const cb::CensorSources sources = censorSources(*store);
   o.unconstrain = cb::historyOptions(property, a.flags.naiveHistory);
   o.censoring = &sources;
   const cb::BacktestResult r = cb::Backtest::run(cube, property, o);

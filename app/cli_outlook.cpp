@@ -46,22 +46,6 @@ std::string join(const std::vector<std::string> &items, const char *sep) {
   return out;
 }
 
-std::unique_ptr<cb::Store> openWithRows(const std::string &path,
-                                        std::vector<cb::Reservation> &rows) {
-  auto store = cb::Store::open(path);
-  rows = store->reservations();
-  if (rows.empty())
-    throw std::runtime_error(path + " has no reservations, so there is nothing to forecast from");
-  return store;
-}
-
-cb::CensorSources censorSources(const cb::Store &store) {
-  cb::CensorSources s;
-  s.closures = store.closures();
-  s.denials = store.denials();
-  return s;
-}
-
 int runOutlook(const OutlookArgs &a) {
   std::vector<cb::Reservation> rows;
   auto store = openWithRows(a.store, rows);

@@ -3,13 +3,17 @@
 #pragma once
 
 #include "core/date.h"
+#include "core/store.h"
+#include "core/unconstrain.h"
 
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
 #include <cstdio>
+#include <memory>
 #include <optional>
 #include <string>
+#include <vector>
 
 namespace cbcli {
 
@@ -29,5 +33,11 @@ std::FILE *notesStream(const std::string &out);
 CLI::Validator dateCheck();
 /// "Mon" … "Sun".
 const char *weekdayName(cb::Date d);
+/// Opens a store and loads its reservations; throws std::runtime_error when it has none (there
+/// is nothing to forecast from).
+std::unique_ptr<cb::Store> openWithRows(const std::string &path,
+                                        std::vector<cb::Reservation> &rows);
+/// The store's sales closures and denials: what unconstraining reads.
+cb::CensorSources censorSources(const cb::Store &store);
 
 } // namespace cbcli
