@@ -31,8 +31,15 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
       store->upsertChannel(c);
     for (const auto &e : sample.events)
       store->addEvent(e);
-    for (const auto &b : sample.blocks)
-      store->addGroupBlock(b);
+    // With the contract date and room type blocks.csv carries (wash is measured by lead).
+    for (std::size_t i = 0; i < sample.blocks.size(); ++i) {
+      const BlockDetail detail =
+          i < sample.blockDetails.size() ? sample.blockDetails[i] : BlockDetail{};
+      store->upsertBlock(
+          {sample.blocks[i],
+           detail.contractedOn == Date{} ? std::nullopt : std::optional<Date>(detail.contractedOn),
+           detail.roomType});
+    }
     for (const auto &d : sample.denials)
       store->addDenial(d);
     tx.commit();

@@ -1,5 +1,6 @@
 #include "core/store.h"
 
+#include "core/blockrecord.h"
 #include "core/propertysettings.h"
 #include "core/sha256.h"
 #include "core/sqlite.h"
@@ -184,9 +185,16 @@ constexpr std::string_view kMigration5 = R"sql(
 ALTER TABLE forecast_values ADD COLUMN sd REAL;
 )sql";
 
+// Group blocks keep their contract date (wash is measured by lead from it) and room type, as
+// the native blocks file carries them. Blocks written before stay with both unknown (NULL).
+constexpr std::string_view kMigration6 = R"sql(
+ALTER TABLE group_blocks ADD COLUMN contracted_on TEXT;
+ALTER TABLE group_blocks ADD COLUMN room_type TEXT REFERENCES room_types (code);
+)sql";
+
 // Index i migrates schema version i to i + 1; the size ties the list to kSchemaVersion.
 constexpr std::array<std::string_view, Store::kSchemaVersion> kMigrations = {
-    kMigration1, kMigration2, kMigration3, kMigration4, kMigration5};
+    kMigration1, kMigration2, kMigration3, kMigration4, kMigration5, kMigration6};
 
 constexpr std::string_view kReservationColumns =
     "id, status, booked_on, cancelled_on, arrival, departure, rooms, room_type, segment, channel, "
@@ -714,15 +722,69 @@ void Store::addGroupBlock(const GroupBlock &b) {
   });
 }
 
+UpsertResult Store::upsertBlock(const BlockRecord &r) {
+  const GroupBlock &b = r.block;
+  std::string why = validateBlock(r);
+  if (!why.empty())
+    throw StoreError(fmt::format("block {}: {}", b.id, why));
+  UpsertResult result = UpsertResult::Unchanged;
+  writeTransaction(*db_, [&] {
+    ensureCode(stmts_->addSegmentCode, b.segment);
+    ensureCode(stmts_->addRoomTypeCode, r.roomType);
+    auto bindAll = [&](SqliteStatement &st) {
+      st.bind(1, b.id);
+      st.bind(2, b.name);
+      st.bindTextOrNull(3, b.segment);
+      st.bind(4, b.arrival);
+      st.bind(5, b.departure);
+      st.bind(6, b.roomsPerNight);
+      st.bind(7, b.cutoff);
+      st.bind(8, blockStatusName(b.status));
+      st.bind(9, r.contractedOn);
+      st.bindTextOrNull(10, r.roomType);
+    };
+    auto insert = db_->prepare(
+        "INSERT INTO group_blocks (id, name, segment, arrival, departure, rooms_per_night, cutoff, "
+        "status, contracted_on, room_type) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10) "
+        "ON CONFLICT (id) DO NOTHING");
+    bindAll(insert);
+    insert.step();
+    if (db_->changes() > 0) {
+      result = UpsertResult::Added;
+      return;
+    }
+    auto update = db_->prepare(
+        "UPDATE group_blocks SET name = ?2, segment = ?3, arrival = ?4, departure = ?5, "
+        "rooms_per_night = ?6, cutoff = ?7, status = ?8, contracted_on = ?9, room_type = ?10 "
+        "WHERE id = ?1 AND (name IS NOT ?2 OR segment IS NOT ?3 OR arrival IS NOT ?4 OR "
+        "departure IS NOT ?5 OR rooms_per_night IS NOT ?6 OR cutoff IS NOT ?7 OR status IS NOT ?8 "
+        "OR contracted_on IS NOT ?9 OR room_type IS NOT ?10)");
+    bindAll(update);
+    update.step();
+    if (db_->changes() > 0)
+      result = UpsertResult::Updated;
+  });
+  return result;
+}
+
+std::vector<BlockRecord> Store::blockRecords() const {
+  std::vector<BlockRecord> out;
+  auto st = db_->prepare("SELECT id, name, segment, arrival, departure, rooms_per_night, cutoff, "
+                         "status, contracted_on, room_type FROM group_blocks ORDER BY id");
+  while (st.step())
+    out.push_back(BlockRecord{GroupBlock{st.columnText(0), st.columnText(1), st.columnText(2),
+                                         st.columnDate(3), st.columnDate(4), st.columnInt(5),
+                                         st.columnDate(6),
+                                         st.columnText(7) == "tentative" ? BlockStatus::Tentative
+                                                                         : BlockStatus::Definite},
+                              st.columnOptionalDate(8), st.columnText(9)});
+  return out;
+}
+
 std::vector<GroupBlock> Store::groupBlocks() const {
   std::vector<GroupBlock> out;
-  auto st = db_->prepare("SELECT id, name, segment, arrival, departure, rooms_per_night, cutoff, "
-                         "status FROM group_blocks ORDER BY id");
-  while (st.step())
-    out.push_back(
-        {st.columnText(0), st.columnText(1), st.columnText(2), st.columnDate(3), st.columnDate(4),
-         st.columnInt(5), st.columnDate(6),
-         st.columnText(7) == "tentative" ? BlockStatus::Tentative : BlockStatus::Definite});
+  for (auto &r : blockRecords())
+    out.push_back(std::move(r.block));
   return out;
 }
 

@@ -1,6 +1,7 @@
 // The property store: one SQLite file per property (schema in store.cpp, migrations ordered).
 #pragma once
 
+#include "core/blockrecord.h"
 #include "core/reservation.h"
 
 #include <cstdint>
@@ -62,7 +63,7 @@ struct StoreSummary {
 /// Every write runs inside a transaction; a batch of writes shares one via Transaction.
 class Store {
 public:
-  static constexpr int kSchemaVersion = 5;
+  static constexpr int kSchemaVersion = 6;
 
   /// Creates a new store file; throws StoreError if the file exists.
   static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
@@ -115,6 +116,11 @@ public:
   // Other records.
   void addGroupBlock(const GroupBlock &b);     ///< a block with the same id is replaced
   std::vector<GroupBlock> groupBlocks() const; ///< ordered by id
+  /// Writes a block with its contract date and room type (schema 6), creating missing segment
+  /// and room-type codes; same id = the stored block is updated when any field differs.
+  /// Throws StoreError when validateBlock() refuses it.
+  UpsertResult upsertBlock(const BlockRecord &b);
+  std::vector<BlockRecord> blockRecords() const; ///< ordered by id
   void addDenial(const Denial &d);
   std::vector<Denial> denials() const;        ///< in the order added
   void addClosure(const SalesClosure &c);     ///< the segment row is created if missing

@@ -685,7 +685,7 @@ TEST_F(StoreTest, ClosuresRoundTripOrderedByNight) {
 TEST_F(StoreTest, SchemaFourStoreGainsTheSpreadColumn) {
   Store::createAtVersionForTesting(path, sampleProperty(), 4);
   auto store = Store::open(path);
-  EXPECT_EQ(store->schemaVersion(), 5);
+  EXPECT_EQ(store->schemaVersion(), Store::kSchemaVersion);
   EXPECT_EQ(store->property().settings, cb::PropertySettings{}); // the column's '{}' default
   auto &db = store->sqliteForTesting();
   EXPECT_EQ(db.queryInt64("SELECT count(*) FROM pragma_table_info('forecast_values') "
