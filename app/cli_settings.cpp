@@ -17,7 +17,7 @@ namespace {
 
 struct SettingsArgs {
   std::string store;
-  std::optional<double> shoulder, peak, walkCost, margin;
+  std::optional<double> shoulder, peak, walkCost, margin, tentative;
   std::optional<int> lateCancelDays;
   std::optional<std::string> history;
 };
@@ -38,13 +38,15 @@ void print(const cb::Property &p) {
                                            ? fmt::format("{:.2f} {}", s.walkCost, p.currency)
                                            : std::string("not set (overbook needs --walk-cost)"));
   fmt::print("late cancellation {} days or fewer before arrival\n", s.lateCancelDays);
+  fmt::print("tentative blocks  count at {:.0f} % of their expected rooms (groups)\n",
+             100 * s.tentativeProbability);
 }
 
 int runSettings(const SettingsArgs &a) {
   auto store = cb::Store::open(a.store);
   cb::Property p = store->property();
-  const bool change =
-      a.shoulder || a.peak || a.walkCost || a.margin || a.lateCancelDays || a.history;
+  const bool change = a.shoulder || a.peak || a.walkCost || a.margin || a.lateCancelDays ||
+                      a.history || a.tentative;
   if (a.shoulder)
     p.settings.seasons.shoulderFrom = *a.shoulder / 100;
   if (a.peak)
@@ -55,6 +57,8 @@ int runSettings(const SettingsArgs &a) {
     p.selloutMargin = *a.margin / 100;
   if (a.lateCancelDays)
     p.settings.lateCancelDays = *a.lateCancelDays;
+  if (a.tentative)
+    p.settings.tentativeProbability = *a.tentative / 100;
   if (a.history) {
     p.settings.unconstrainHistory = *a.history != "observed";
     if (p.settings.unconstrainHistory)
@@ -99,6 +103,10 @@ void addSettingsVerbs(CLI::App &app, VerbList &verbs) {
   cmd->add_option("--late-cancel-days", a->lateCancelDays,
                   "A cancellation this many days or fewer before arrival is late (2)")
       ->check(CLI::Range(0, 365));
+  cmd->add_option("--tentative-probability", a->tentative,
+                  "Groups: a tentative block's expected rooms count at this % (50, no source: "
+                  "set the share of your tentative blocks that turn definite)")
+      ->check(CLI::Range(0.0, 100.0));
   verbs.push_back({cmd, [a] { return runSettings(*a); }});
 }
 

@@ -18,6 +18,9 @@ std::string validateSettings(const PropertySettings &s) {
     return "walk_cost must be a number of at least 0";
   if (s.lateCancelDays < 0 || s.lateCancelDays > 365)
     return "late_cancel_days must be between 0 and 365";
+  if (!std::isfinite(s.tentativeProbability) || s.tentativeProbability < 0 ||
+      s.tentativeProbability > 1)
+    return "tentative_probability must be between 0 and 1";
   return {};
 }
 
@@ -27,7 +30,8 @@ std::string settingsToJson(const PropertySettings &s) {
                          {"unconstrain_history", s.unconstrainHistory},
                          {"unconstrain_method", s.unconstrainMethod},
                          {"walk_cost", s.walkCost},
-                         {"late_cancel_days", s.lateCancelDays}};
+                         {"late_cancel_days", s.lateCancelDays},
+                         {"tentative_probability", s.tentativeProbability}};
   return j.dump();
 }
 
@@ -57,6 +61,7 @@ PropertySettings settingsFromJson(std::string_view text) {
   read("unconstrain_method", s.unconstrainMethod);
   read("walk_cost", s.walkCost);
   read("late_cancel_days", s.lateCancelDays);
+  read("tentative_probability", s.tentativeProbability);
   if (auto msg = validateSettings(s); !msg.empty())
     throw SettingsError(msg);
   return s;

@@ -21,7 +21,8 @@ public:
 };
 
 /// Example: {"late_cancel_days":2,"season_peak_from":0.9,"season_shoulder_from":0.7,
-/// "unconstrain_history":true,"unconstrain_method":"em","walk_cost":0}
+/// "tentative_probability":0.5,"unconstrain_history":true,"unconstrain_method":"em",
+/// "walk_cost":0}
 std::string settingsToJson(const PropertySettings &s);
 /// Throws SettingsError naming the key at fault ("season_peak_from must be at least
 /// season_shoulder_from").

@@ -102,6 +102,10 @@ struct PropertySettings {
   double walkCost = 0;
   /// A cancellation made this many days or fewer before arrival counts as late (overbooking).
   int lateCancelDays = 2;
+  /// Chance that a tentative group block becomes definite: its expected rooms count with this
+  /// weight (core/groupforecast.h). 0.5, an even chance, is a placeholder with no source: the
+  /// store cannot measure it (a block keeps only its latest status), so set your own.
+  double tentativeProbability = 0.5;
   bool operator==(const PropertySettings &) const = default;
 };
 
