@@ -3,6 +3,7 @@
 #include "testsupport.h"
 
 #include "core/groupmodel.h"
+#include "core/grouppace.h"
 
 namespace {
 
@@ -95,6 +96,40 @@ TEST_F(GroupModelCase, ExpectedRoomsBeforeAndAfterTheCutoff) {
   // A past night: the group rooms that stayed.
   EXPECT_DOUBLE_EQ(model.expectedRooms(d("2026-02-11"), asOf, 0.5), 8.0);
   EXPECT_NEAR(model.shareOnBooks(0, d("2026-01-11")), 10.0 / 20.0, 1e-12); // 6 + 4 of 20
+}
+
+// Pickup tracking (core/grouppace.h) on the same case, read at 03-01:
+//   typical pace at lead 30: only A was contracted 30 days out; its share at 01-11 was
+//     (6 + 4) / 20 = 0.5 → median 0.5.
+//   at lead 9: A at 02-01 had (7 + 7) / 20 = 0.7, B at 02-11 had 5 / 5 = 1 → median 0.85, lower
+//     quartile (type 7) 0.7 + 0.25 × 0.3 = 0.775.
+//   block C (lead 9): 2 + 2 of 16 room-nights = 0.25 < 0.775 → "well behind"; expected room-nights
+//     2.5 + 2.5 = 5 at p = 0.5; cutoff 03-03 is 2 days away.
+TEST_F(GroupModelCase, PickupTrackingAgainstTheTypicalPace) {
+  const auto t30 = cb::typicalPace(model, 30, asOf);
+  EXPECT_EQ(t30.blocks, 1);
+  EXPECT_DOUBLE_EQ(*t30.median, 0.5);
+  const auto t9 = cb::typicalPace(model, 9, asOf);
+  EXPECT_EQ(t9.blocks, 2);
+  EXPECT_NEAR(*t9.median, 0.85, 1e-12);
+  EXPECT_NEAR(*t9.lowerQuartile, 0.775, 1e-12);
+  const auto tracked = cb::trackBlocks(model, asOf, 0.5);
+  ASSERT_EQ(tracked.size(), 1U); // A and B have departed
+  const auto &c = tracked[0];
+  EXPECT_EQ(model.blocks()[c.block].block.id, "C");
+  EXPECT_EQ(c.lead, 9);
+  EXPECT_EQ(c.daysToCutoff, 2);
+  EXPECT_EQ(c.pickedRoomNights, 4);
+  EXPECT_DOUBLE_EQ(c.share, 0.25);
+  EXPECT_NEAR(c.expectedRoomNights, 5.0, 1e-12);
+  EXPECT_EQ(c.flag, "well behind");
+  // After the cutoff with rooms not picked up the block is released.
+  EXPECT_EQ(cb::trackBlocks(model, d("2026-03-04"), 0.5)[0].flag, "released");
+  const auto curve = cb::pickupCurve(model, 2, asOf, {30, 9, 3});
+  ASSERT_EQ(curve.size(), 3U);
+  EXPECT_DOUBLE_EQ(*curve[0].share, 0.0); // 02-08: nothing booked yet (C1 on 02-15)
+  EXPECT_DOUBLE_EQ(*curve[1].share, 0.25);
+  EXPECT_EQ(curve[2].share, std::nullopt); // 03-07 is after the reading date
 }
 
 } // namespace
