@@ -21,6 +21,8 @@ int main(int argc, char **argv) {
   cbcli::addOutlookVerbs(app, verbs);
   cbcli::addOverbookVerbs(app, verbs);
   cbcli::addSettingsVerbs(app, verbs);
+  cbcli::addGroupVerbs(app, verbs);
+  cbcli::addDisplaceVerbs(app, verbs);
 
   try {
     app.parse(argc, argv);

@@ -30,5 +30,7 @@ void addUnconstrainVerbs(CLI::App &app, VerbList &verbs); // unconstrain (cli_un
 void addOutlookVerbs(CLI::App &app, VerbList &verbs);     // outlook, protect (cli_outlook.cpp)
 void addOverbookVerbs(CLI::App &app, VerbList &verbs);    // overbook (cli_overbook.cpp)
 void addSettingsVerbs(CLI::App &app, VerbList &verbs);    // settings (cli_settings.cpp)
+void addGroupVerbs(CLI::App &app, VerbList &verbs);       // import-blocks, groups (cli_groups.cpp)
+void addDisplaceVerbs(CLI::App &app, VerbList &verbs);    // displace (cli_displace.cpp)
 
 } // namespace cbcli
