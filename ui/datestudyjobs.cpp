@@ -24,6 +24,8 @@ struct IdleThread {
 DateStudyJobs::DateStudyJobs(QObject *parent)
     : watcher_(new QFutureWatcher<ForecastCache>(parent)),
       protWatcher_(new QFutureWatcher<ProtectionOut>(parent)) {
+  forecastPool_.setMaxThreadCount(1);
+  protectionPool_.setMaxThreadCount(1);
   QObject::connect(watcher_, &QFutureWatcherBase::finished, parent, [this] { finished(); });
   QObject::connect(protWatcher_, &QFutureWatcherBase::finished, parent, [this] {
     std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
@@ -70,9 +72,8 @@ void DateStudyJobs::ensure(int lead, int horizon, const std::string &first) {
   // One method at a time, quick ones first, so the picker fills within seconds and a method
   // switch finds most methods cached. mlp (minutes on the sample) and auto run only on demand.
   static const std::vector<std::string> quickFirst = {
-      "naive",       "last-year",   "mavg", "pickup-add", "pickup-adv",
-      "pickup-mult", "pace-extrap", "ses",  "blend",      "holt-winters",
-      "ar",          "regress",     "mlp"};
+      "naive",       "last-year", "mavg",  "pickup-add",   "pickup-adv", "pickup-mult",
+      "pace-extrap", "ses",       "blend", "holt-winters", "ar",         "regress"};
   std::vector<std::string> order = quickFirst;
   const std::string shown = isSlow(first) ? std::string("pickup-adv") : first;
   queue_.push_back({shown});
@@ -111,7 +112,7 @@ void DateStudyJobs::startNext() {
   auto prog = progress_;
   const cb::Date asOf = asOf_;
   const int horizon = horizon_;
-  auto f = QtConcurrent::run([s, asOf, horizon, group, prog] {
+  auto f = QtConcurrent::run(&forecastPool_, [s, asOf, horizon, group, prog] {
     IdleThread idle;
     return computeForecastCache(*s, asOf, horizon, group, prog.get());
   });
@@ -162,7 +163,7 @@ void DateStudyJobs::requestProtection(cb::Date night, const std::string &method)
     return;
   WorkbenchSession *s = session_;
   const cb::Date asOf = session_->readingDate();
-  auto f = QtConcurrent::run([s, night, asOf, method] {
+  auto f = QtConcurrent::run(&protectionPool_, [s, night, asOf, method] {
     IdleThread idle;
     ProtectionOut out{night, asOf, method, std::nullopt, {}};
     try {

@@ -8,6 +8,7 @@
 
 #include <QFuture>
 #include <QFutureWatcher>
+#include <QThreadPool>
 
 #include <deque>
 #include <functional>
@@ -73,6 +74,9 @@ private:
   QFutureWatcher<ProtectionOut> *protWatcher_;
   std::vector<QFuture<ForecastCache>> running_;
   std::vector<QFuture<ProtectionOut>> protRunning_;
+  // Threads of their own (one each), so the global pool stays free for Horizon's outlook and
+  // store loading: the first screen is not kept waiting behind a queue of forecasts.
+  QThreadPool forecastPool_, protectionPool_;
 };
 
 } // namespace cbui

@@ -1,37 +1,31 @@
 #include "ui/datestudypanel.h"
 
-#include "core/advice.h"
 #include "core/forecastmethod.h"
 #include "core/textformat.h"
+#include "ui/csvexport.h"
 #include "ui/datestudychart.h"
+#include "ui/datestudydetails.h"
 #include "ui/datestudyjobs.h"
 #include "ui/datestudymodel.h"
 #include "ui/workbenchsession.h"
 
 #include <QComboBox>
 #include <QDate>
-#include <QDoubleSpinBox>
 #include <QElapsedTimer>
 #include <QFileDialog>
-#include <QFormLayout>
-#include <QGridLayout>
-#include <QGroupBox>
 #include <QHBoxLayout>
-#include <QHeaderView>
 #include <QLabel>
-#include <QLineEdit>
-#include <QListWidget>
 #include <QLocale>
 #include <QProgressBar>
 #include <QPushButton>
 #include <QScrollArea>
 #include <QShortcut>
 #include <QSplitter>
-#include <QTabWidget>
 #include <QTableWidget>
 #include <QTimer>
 #include <QVBoxLayout>
 
+#include <cmath>
 #include <deque>
 #include <memory>
 
@@ -64,14 +58,6 @@ QColor segmentColour(const cb::Segment &s, int i) {
   return okabeIto[i % 8];
 }
 
-QTableWidgetItem *cell(const QString &text, bool number = false) {
-  auto *item = new QTableWidgetItem(text);
-  item->setFlags(item->flags() & ~Qt::ItemIsEditable);
-  if (number)
-    item->setTextAlignment(Qt::AlignRight | Qt::AlignVCenter);
-  return item;
-}
-
 } // namespace
 
 struct DateStudyPanel::Impl {
@@ -79,24 +65,17 @@ struct DateStudyPanel::Impl {
   WorkbenchSession *session = nullptr;
   std::unique_ptr<DateStudyModel> model;
   DateStudyChart *chart = nullptr;
+  DateStudyDetails *details = nullptr;
   DateStudyChartData base; // curves and band of the night; the forecast is added on top
   QLabel *title = nullptr, *status = nullptr;
   QComboBox *segment = nullptr, *method = nullptr;
-  QPushButton *drill = nullptr, *cancel = nullptr;
+  QPushButton *cancel = nullptr;
   QProgressBar *progress = nullptr;
-  QLabel *fcValue = nullptr, *fcMae = nullptr, *fcDesc = nullptr, *fcFormula = nullptr;
-  QLabel *uncDemand = nullptr, *uncBand = nullptr, *capRooms = nullptr, *conRooms = nullptr,
-         *spill = nullptr, *sellout = nullptr, *occupancy = nullptr;
-  QTabWidget *tabs = nullptr;
-  QTableWidget *segTable = nullptr, *resTable = nullptr;
-  QLabel *segNotes = nullptr, *resSummary = nullptr;
-  QDoubleSpinBox *ovValue = nullptr;
-  QLineEdit *ovReason = nullptr;
-  QListWidget *ovHistory = nullptr;
   std::vector<double> overrideValues;
   std::vector<cb::ForecastOverride> allOverrides; // read when the session opens and after a save
   std::string overrideError;
   qint64 nightMicros = 0, methodMicros = 0;
+  bool started = false; // background forecasts run once the panel was shown (or asked to)
 
   DateStudyJobs *jobs = nullptr;
   QTimer *poll = nullptr;
@@ -106,6 +85,13 @@ struct DateStudyPanel::Impl {
 
   std::string protectionMethod() const {
     return DateStudyJobs::isSlow(methodName()) ? kDefaultMethod : methodName();
+  }
+
+  void ensureForecasts() {
+    if (!model || !started)
+      return;
+    jobs->ensure(model->lead(), model->horizonNeeded(), methodName());
+    model->setCache(jobs->cache());
   }
 
   void updateProgress() {
@@ -131,12 +117,10 @@ struct DateStudyPanel::Impl {
   }
 
   void requestProtection() {
-    if (!model || model->lead() < 1)
+    if (!model || model->lead() < 1 || !started)
       return;
-    if (!jobs->protecting()) {
-      segTable->setRowCount(0);
-      segNotes->setText(tr("Computing protection…"));
-    }
+    if (!jobs->protecting())
+      details->setSegmentsPending(tr("Computing protection…"));
     jobs->requestProtection(model->night(), protectionMethod());
   }
 
@@ -151,32 +135,31 @@ struct DateStudyPanel::Impl {
   }
 
   void fillSegments(const ProtectionOut &out) {
-    segTable->setRowCount(0);
     if (!out.protection) {
-      segNotes->setText(tr("No protection for this night: %1").arg(q(out.error)));
+      details->setSegmentsPending(tr("No protection for this night: %1").arg(q(out.error)));
       return;
     }
     const auto &p = *out.protection;
-    segTable->setRowCount(static_cast<int>(p.result.lines.size()));
+    QList<SegmentRowText> rows;
     for (std::size_t i = 0; i < p.result.lines.size(); ++i) {
       const auto &l = p.result.lines[i];
-      const int row = static_cast<int>(i);
-      const int otb = i < p.segmentOtb.size() ? p.segmentOtb[i] : 0;
-      segTable->setItem(row, 0, cell(q(l.demand.code)));
-      segTable->setItem(row, 1, cell(count(otb), true));
-      segTable->setItem(row, 2, cell(rooms1(otb + std::max(0.0, l.demand.mean)), true));
-      segTable->setItem(
-          row, 3, cell(q(cb::formatMoney(l.demand.rate, session->property().currency)), true));
-      segTable->setItem(row, 4, cell(l.protectedRooms ? count(*l.protectedRooms) : tr("—"), true));
-      segTable->setItem(row, 5, cell(count(l.bookingLimit), true));
-      segTable->setItem(row, 6, cell(l.open ? tr("open") : tr("closed")));
+      SegmentRowText r;
+      r.segment = q(l.demand.code);
+      r.otb = i < p.segmentOtb.size() ? p.segmentOtb[i] : 0;
+      r.forecast = r.otb + std::max(0.0, l.demand.mean);
+      r.rate = l.demand.rate;
+      r.rateText = q(cb::formatMoney(l.demand.rate, session->property().currency));
+      r.protect = l.protectedRooms ? static_cast<int>(std::lround(*l.protectedRooms)) : -1;
+      r.limit = static_cast<int>(std::lround(l.bookingLimit));
+      r.open = l.open;
+      rows << r;
     }
     QStringList notes;
     notes << tr("EMSR-b with %1 forecasts; %2 of %3 rooms left.")
                  .arg(q(out.method), count(p.result.remaining), count(p.capacity));
     for (const auto &n : p.notes)
       notes << q(n);
-    segNotes->setText(notes.join(QLatin1Char(' ')));
+    details->setSegments(rows, notes.join(QLatin1Char(' ')));
   }
 
   void redraw() {
@@ -216,7 +199,7 @@ struct DateStudyPanel::Impl {
     }
     base = d;
     const int otb = model->roomsOnBooks();
-    drill->setText(tr("Reservations behind OTB (%1 rooms)").arg(count(otb)));
+    details->setDrillText(tr("Reservations behind OTB (%1 rooms)").arg(count(otb)));
     title->setText(
         tr("<b>%1</b> · %2 · reading date %3")
             .arg(dayText(model->night()),
@@ -227,14 +210,15 @@ struct DateStudyPanel::Impl {
   void applyForecast() {
     DateStudyChartData d = base;
     const std::string m = methodName();
+    QString desc, formula, value, accuracy;
     if (m != "auto") {
       auto made = cb::makeMethod(m);
-      fcDesc->setText(q(made->description()));
-      fcFormula->setText(q(made->formula()));
+      desc = q(made->description());
+      formula = q(made->formula());
     } else {
-      fcDesc->setText(tr("Per series and lead bucket, the method with the lowest error over the "
-                         "last 8 weeks of nights already final at the reading date."));
-      fcFormula->setText(tr("F = F_m*, m* = argmin_m MAE_m (lead bucket, 8 weeks)"));
+      desc = tr("Per series and lead bucket, the method with the lowest error over the last 8 "
+                "weeks of nights already final at the reading date.");
+      formula = tr("F = F_m*, m* = argmin_m MAE_m (lead bucket, 8 weeks)");
     }
     const auto fv = model->forecast(m);
     if (fv) {
@@ -245,69 +229,67 @@ struct DateStudyPanel::Impl {
       d.forecastLow = fv->lo.value_or(0);
       d.forecastHigh = fv->hi.value_or(0);
       d.forecastLabel = tr("Forecast (%1) %2").arg(q(fv->method), rooms1(fv->forecast));
-      QString text = tr("Forecast <b>%1</b> rooms").arg(rooms1(fv->forecast));
+      value = tr("Forecast <b>%1</b> rooms").arg(rooms1(fv->forecast));
       if (d.hasForecastBand)
-        text += tr(" (80 % band %1–%2)").arg(rooms1(*fv->lo), rooms1(*fv->hi));
-      text += tr(" · OTB %1").arg(count(fv->otb));
+        value += tr(" (80 % band %1–%2)").arg(rooms1(*fv->lo), rooms1(*fv->hi));
+      value += tr(" · OTB %1").arg(count(fv->otb));
       if (m == "auto")
-        text += tr(" · chosen: %1").arg(q(fv->method));
-      fcValue->setText(text);
+        value += tr(" · chosen: %1").arg(q(fv->method));
     } else if (model->lead() < 1) {
-      fcValue->setText(
-          tr("Night already stayed: final %1 rooms").arg(count(model->roomsOnBooks())));
+      value = tr("Night already stayed: final %1 rooms").arg(count(model->roomsOnBooks()));
+    } else if (!started) {
+      value = tr("Forecasts start when Date Study is shown…");
     } else {
-      fcValue->setText(DateStudyJobs::isSlow(m) && !jobs->forecasting()
-                           ? tr("%1 not computed (cancelled)").arg(q(m))
-                           : tr("Forecast being computed…"));
+      value = DateStudyJobs::isSlow(m) && !jobs->forecasting()
+                  ? tr("%1 not computed (cancelled)").arg(q(m))
+                  : tr("Forecast being computed…");
     }
     int lead = 0;
     if (auto mae = model->mae(m == "auto" && fv ? fv->method : m, &lead))
-      fcMae->setText(tr("Backtest MAE at lead %1, %2, last 8 weeks: <b>%3</b> rooms")
-                         .arg(lead)
-                         .arg(q(model->series()), rooms1(*mae)));
+      accuracy = tr("Backtest MAE at lead %1, %2, last 8 weeks: <b>%3</b> rooms")
+                     .arg(lead)
+                     .arg(q(model->series()), rooms1(*mae));
     else
-      fcMae->setText(tr("Backtest MAE: not available yet"));
+      accuracy = tr("Backtest MAE: not available yet");
+    details->setForecast(value, accuracy, desc, formula);
 
-    const auto cap = model->capacityFigures(m);
-    auto set = [](QLabel *l, const QString &t) { l->setText(t); };
-    set(capRooms, count(session->property().capacityOn(model->night())));
-    if (cap) {
-      set(uncDemand, rooms1(cap->forecast));
-      set(uncBand,
-          cap->lo && cap->hi ? tr("%1–%2").arg(rooms1(*cap->lo), rooms1(*cap->hi)) : tr("—"));
-      set(conRooms, rooms1(cap->constrained));
-      set(spill, rooms1(cap->spill));
-      set(sellout, q(cb::formatPercent(cap->pSellout)));
-      set(occupancy, q(cb::formatPercent(cap->occupancy)));
-    } else {
-      for (QLabel *l : {uncDemand, uncBand, conRooms, spill, sellout, occupancy})
-        set(l, tr("—"));
+    CapacityTexts t;
+    t.capacity = count(session->property().capacityOn(model->night()));
+    t.demand = t.band = t.sold = t.spill = t.sellout = t.occupancy = tr("—");
+    if (const auto cap = model->capacityFigures(m)) {
+      t.demand = rooms1(cap->forecast);
+      if (cap->lo && cap->hi)
+        t.band = tr("%1–%2").arg(rooms1(*cap->lo), rooms1(*cap->hi));
+      t.sold = rooms1(cap->constrained);
+      t.spill = rooms1(cap->spill);
+      t.sellout = q(cb::formatPercent(cap->pSellout));
+      t.occupancy = q(cb::formatPercent(cap->occupancy));
     }
+    details->setCapacity(t);
     d.overrides = QVector<double>(overrideValues.begin(), overrideValues.end());
-    QElapsedTimer t;
-    t.start();
+    QElapsedTimer timer;
+    timer.start();
     chart->setData(d);
     if (qEnvironmentVariableIsSet("CURVEBENCH_TRACE_DATESTUDY"))
-      qInfo("chart %lld us", static_cast<long long>(t.nsecsElapsed() / 1000));
+      qInfo("chart %lld us", static_cast<long long>(timer.nsecsElapsed() / 1000));
   }
 
   void loadOverrides() {
-    ovHistory->clear();
     overrideValues.clear();
+    QStringList lines;
     if (!overrideError.empty())
-      ovHistory->addItem(tr("Overrides cannot be read: %1").arg(q(overrideError)));
+      lines << tr("Overrides cannot be read: %1").arg(q(overrideError));
     for (const auto &o : allOverrides) {
       if (o.night != model->night())
         continue;
-      {
-        const QString seg = o.segment.empty() ? tr("hotel") : q(o.segment);
-        ovHistory->addItem(tr("%1 · %2 · %3 rooms · %4%5")
-                               .arg(q(o.createdAt), seg, rooms1(o.value), q(o.reason),
-                                    o.author.empty() ? QString() : tr(" (%1)").arg(q(o.author))));
-        if (o.segment == model->segment())
-          overrideValues.push_back(o.value);
-      }
+      const QString seg = o.segment.empty() ? tr("hotel") : q(o.segment);
+      lines << tr("%1 · %2 · %3 rooms · %4%5")
+                   .arg(q(o.createdAt), seg, rooms1(o.value), q(o.reason),
+                        o.author.empty() ? QString() : tr(" (%1)").arg(q(o.author)));
+      if (o.segment == model->segment())
+        overrideValues.push_back(o.value);
     }
+    details->setOverrideHistory(lines);
   }
 
   void readOverrides() {
@@ -321,35 +303,44 @@ struct DateStudyPanel::Impl {
   }
 
   void fillReservations() {
-    const auto rows = model->reservationsOnBooks();
-    resTable->setRowCount(static_cast<int>(rows.size()));
+    const auto res = model->reservationsOnBooks();
+    QList<ReservationRowText> rows;
     int total = 0;
-    for (std::size_t i = 0; i < rows.size(); ++i) {
-      const auto &r = rows[i];
-      const int row = static_cast<int>(i);
+    for (const auto &r : res) {
       total += r.rooms;
-      QString st = q(cb::statusName(r.status));
+      ReservationRowText t;
+      t.id = q(r.id);
+      t.bookedOn = q(r.bookedOn.toIso());
+      t.status = q(cb::statusName(r.status));
       if (r.cancelledOn)
-        st = tr("booked (cancelled %1, after the reading date)").arg(q(r.cancelledOn->toIso()));
-      resTable->setItem(row, 0, cell(q(r.id)));
-      resTable->setItem(row, 1, cell(q(r.bookedOn.toIso())));
-      resTable->setItem(row, 2, cell(st));
-      resTable->setItem(row, 3, cell(q(r.segment)));
-      resTable->setItem(row, 4, cell(count(r.rooms), true));
-      resTable->setItem(row, 5, cell(q(r.arrival.toIso())));
-      resTable->setItem(row, 6, cell(count(r.nights()), true));
-      resTable->setItem(
-          row, 7,
-          cell(q(cb::formatMoney(r.rate,
-                                 r.currency.empty() ? session->property().currency : r.currency)),
-               true));
+        t.status =
+            tr("booked (cancelled %1, after the reading date)").arg(q(r.cancelledOn->toIso()));
+      t.segment = q(r.segment);
+      t.rooms = r.rooms;
+      t.arrival = q(r.arrival.toIso());
+      t.nights = r.nights();
+      t.rate = r.rate;
+      t.rateText = q(
+          cb::formatMoney(r.rate, r.currency.empty() ? session->property().currency : r.currency));
+      rows << t;
     }
-    resTable->resizeColumnsToContents();
-    resSummary->setText(tr("%1 reservations, %2 rooms on the books for %3 (%4) as of %5")
-                            .arg(count(static_cast<double>(rows.size())), count(total),
-                                 dayText(model->night()),
-                                 model->segment().empty() ? tr("hotel") : q(model->segment()),
-                                 dayText(session->readingDate())));
+    details->setReservations(rows,
+                             tr("%1 reservations, %2 rooms on the books for %3 (%4) as of %5")
+                                 .arg(count(static_cast<double>(res.size())), count(total),
+                                      dayText(model->night()),
+                                      model->segment().empty() ? tr("hotel") : q(model->segment()),
+                                      dayText(session->readingDate())));
+  }
+
+  void exportTable(QTableWidget *table, const QString &name) {
+    const QString f =
+        QFileDialog::getSaveFileName(self, tr("Save the table"), name, tr("CSV files (*.csv)"));
+    if (f.isEmpty())
+      return;
+    QString error;
+    status->setText(writeTextFile(f, tableToCsv(*table->model()), &error)
+                        ? tr("Saved %1").arg(f)
+                        : tr("Not saved: %1").arg(error));
   }
 };
 
@@ -368,6 +359,7 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   next->setFixedWidth(32);
   d_->title = new QLabel(tr("No store open"));
   d_->segment = new QComboBox;
+  d_->segment->setSizeAdjustPolicy(QComboBox::AdjustToContents);
   d_->method = new QComboBox;
   for (const auto &m : cb::methodNames())
     d_->method->addItem(m == "mlp" ? tr("mlp (slow, computed on demand)") : q(m), q(m));
@@ -392,130 +384,16 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   auto *split = new QSplitter(Qt::Horizontal);
   d_->chart = new DateStudyChart;
   split->addWidget(d_->chart);
-
-  // Right column: forecast, demand against capacity, then tabs.
-  auto *right = new QWidget;
-  auto *col = new QVBoxLayout(right);
-  col->setContentsMargins(4, 0, 0, 0);
-  auto *fcBox = new QGroupBox(tr("Forecast to arrival"));
-  auto *fcLay = new QVBoxLayout(fcBox);
-  d_->fcValue = new QLabel;
-  d_->fcMae = new QLabel;
-  d_->fcDesc = new QLabel;
-  d_->fcFormula = new QLabel;
-  d_->fcDesc->setWordWrap(true);
-  d_->fcFormula->setWordWrap(true);
-  d_->fcFormula->setStyleSheet(QStringLiteral("font-family: monospace; color: #333;"));
-  d_->fcValue->setWordWrap(true);
-  d_->fcMae->setWordWrap(true);
-  d_->fcValue->setStyleSheet(QStringLiteral("font-size: 13pt;"));
-  for (QLabel *l : {d_->fcValue, d_->fcMae, d_->fcDesc, d_->fcFormula})
-    fcLay->addWidget(l);
-  col->addWidget(fcBox);
-
-  auto *capBox = new QGroupBox(tr("Demand against capacity (hotel)"));
-  auto *grid = new QGridLayout(capBox);
-  auto mk = [] {
-    auto *l = new QLabel;
-    l->setAlignment(Qt::AlignRight | Qt::AlignVCenter);
-    return l;
-  };
-  d_->uncDemand = mk();
-  d_->uncBand = mk();
-  d_->capRooms = mk();
-  d_->conRooms = mk();
-  d_->spill = mk();
-  d_->sellout = mk();
-  d_->occupancy = mk();
-  grid->addWidget(new QLabel(tr("<b>Unconstrained</b>")), 0, 0, 1, 2);
-  grid->addWidget(new QLabel(tr("<b>Constrained</b>")), 0, 2, 1, 2);
-  grid->addWidget(new QLabel(tr("Demand")), 1, 0);
-  grid->addWidget(d_->uncDemand, 1, 1);
-  grid->addWidget(new QLabel(tr("80 % band")), 2, 0);
-  grid->addWidget(d_->uncBand, 2, 1);
-  grid->addWidget(new QLabel(tr("Spill")), 3, 0);
-  grid->addWidget(d_->spill, 3, 1);
-  grid->addWidget(new QLabel(tr("Capacity")), 1, 2);
-  grid->addWidget(d_->capRooms, 1, 3);
-  grid->addWidget(new QLabel(tr("Rooms sold (expected)")), 2, 2);
-  grid->addWidget(d_->conRooms, 2, 3);
-  grid->addWidget(new QLabel(tr("Occupancy")), 3, 2);
-  grid->addWidget(d_->occupancy, 3, 3);
-  grid->addWidget(new QLabel(tr("Sell-out probability")), 4, 0, 1, 3);
-  grid->addWidget(d_->sellout, 4, 3);
-  grid->setColumnStretch(1, 1);
-  grid->setColumnStretch(3, 1);
-  col->addWidget(capBox);
-
-  d_->tabs = new QTabWidget;
-  // Segments and protection, with the caution.
-  auto *segPage = new QWidget;
-  auto *segLay = new QVBoxLayout(segPage);
-  d_->segTable = new QTableWidget(0, 7);
-  d_->segTable->setHorizontalHeaderLabels({tr("Segment"), tr("OTB"), tr("Forecast"), tr("Rate"),
-                                           tr("Protect"), tr("Limit"), tr("Status")});
-  d_->segTable->verticalHeader()->hide();
-  d_->segTable->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-  d_->segTable->setToolTip(tr("Double-click a segment to see its reservations"));
-  d_->segNotes = new QLabel;
-  d_->segNotes->setWordWrap(true);
-  auto *caution = new QLabel(q(cb::kAdvisoryCaution));
-  caution->setWordWrap(true);
-  caution->setStyleSheet(QStringLiteral("color: #7a4a00; font-style: italic;"));
-  segLay->addWidget(d_->segTable, 1);
-  segLay->addWidget(d_->segNotes);
-  segLay->addWidget(caution);
-  d_->tabs->addTab(segPage, tr("Segments && protection"));
-
-  // Expert override.
-  auto *ovPage = new QWidget;
-  auto *ovLay = new QVBoxLayout(ovPage);
-  auto *form = new QFormLayout;
-  d_->ovValue = new QDoubleSpinBox;
-  d_->ovValue->setRange(0, 100000);
-  d_->ovValue->setDecimals(0);
-  d_->ovReason = new QLineEdit;
-  d_->ovReason->setPlaceholderText(tr("Why (e.g. city marathon announced)"));
-  auto *save = new QPushButton(tr("Save override"));
-  form->addRow(tr("Final rooms"), d_->ovValue);
-  form->addRow(tr("Reason"), d_->ovReason);
-  ovLay->addLayout(form);
-  ovLay->addWidget(save);
-  ovLay->addWidget(new QLabel(tr("History of this night")));
-  d_->ovHistory = new QListWidget;
-  ovLay->addWidget(d_->ovHistory, 1);
-  d_->tabs->addTab(ovPage, tr("Override"));
-
-  // Drill-down.
-  auto *resPage = new QWidget;
-  auto *resLay = new QVBoxLayout(resPage);
-  d_->resSummary = new QLabel;
-  d_->resSummary->setWordWrap(true);
-  d_->resTable = new QTableWidget(0, 8);
-  d_->resTable->setHorizontalHeaderLabels({tr("Id"), tr("Booked on"), tr("Status"), tr("Segment"),
-                                           tr("Rooms"), tr("Arrival"), tr("Nights"), tr("Rate")});
-  d_->resTable->verticalHeader()->hide();
-  d_->resTable->setSortingEnabled(false);
-  resLay->addWidget(d_->resSummary);
-  resLay->addWidget(d_->resTable, 1);
-  d_->tabs->addTab(resPage, tr("Reservations"));
-  connect(d_->tabs, &QTabWidget::currentChanged, this, [this](int i) {
-    if (i == 2 && d_->model)
-      d_->fillReservations();
-  });
-  col->addWidget(d_->tabs, 1);
-
-  d_->drill = new QPushButton(tr("Reservations behind OTB"));
-  col->addWidget(d_->drill);
+  d_->details = new DateStudyDetails;
   auto *scroll = new QScrollArea;
-  scroll->setWidget(right);
+  scroll->setWidget(d_->details);
   scroll->setWidgetResizable(true);
   scroll->setFrameShape(QFrame::NoFrame);
+  scroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
   split->addWidget(scroll);
   split->setStretchFactor(0, 3);
   split->setStretchFactor(1, 2);
   split->setSizes({800, 520});
-  scroll->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
   outer->addWidget(split, 1);
 
   auto *foot = new QHBoxLayout;
@@ -579,26 +457,49 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
     QElapsedTimer t;
     t.start();
     const std::string m = d_->methodName();
-    if (DateStudyJobs::isSlow(m) && !d_->model->forecast(m) && d_->model->lead() >= 1)
+    if (d_->started && DateStudyJobs::isSlow(m) && !d_->model->forecast(m) &&
+        d_->model->lead() >= 1)
       d_->jobs->requestSlow(m);
     d_->applyForecast();
     d_->methodMicros = t.nsecsElapsed() / 1000;
     d_->requestProtection();
   });
-  connect(save, &QPushButton::clicked, this,
-          [this] { saveOverride(d_->ovValue->value(), d_->ovReason->text()); });
-  connect(d_->drill, &QPushButton::clicked, this, &DateStudyPanel::showReservations);
-  connect(d_->segTable, &QTableWidget::cellDoubleClicked, this, [this](int row, int) {
-    const int i = d_->segment->findData(d_->segTable->item(row, 0)->text());
+  connect(d_->details, &DateStudyDetails::overrideRequested, this,
+          [this](double value, const QString &reason) { saveOverride(value, reason); });
+  connect(d_->details, &DateStudyDetails::drillRequested, this, &DateStudyPanel::showReservations);
+  connect(d_->details, &DateStudyDetails::tabShown, this, [this](int tab) {
+    if (tab == DateStudyDetails::ReservationsTab && d_->model)
+      d_->fillReservations();
+  });
+  connect(d_->details, &DateStudyDetails::segmentActivated, this, [this](const QString &code) {
+    const int i = d_->segment->findData(code);
     if (i >= 0)
       d_->segment->setCurrentIndex(i);
     showReservations();
   });
+  connect(d_->details, &DateStudyDetails::exportRequested, this,
+          [this](QTableWidget *table, const QString &name) { d_->exportTable(table, name); });
 }
 
 DateStudyPanel::~DateStudyPanel() {
   delete d_->jobs; // waits for the workers, which read the session
   delete d_;
+}
+
+void DateStudyPanel::startBackgroundWork() {
+  if (d_->started)
+    return;
+  d_->started = true;
+  if (!d_->model)
+    return;
+  d_->ensureForecasts();
+  d_->applyForecast();
+  d_->requestProtection();
+}
+
+void DateStudyPanel::showEvent(QShowEvent *event) {
+  QWidget::showEvent(event);
+  startBackgroundWork();
 }
 
 void DateStudyPanel::setSession(WorkbenchSession *session) {
@@ -636,8 +537,7 @@ void DateStudyPanel::setNight(cb::Date night) {
     if (trace)
       qInfo("%s %lld us", what, static_cast<long long>(t.nsecsElapsed() / 1000));
   };
-  d_->jobs->ensure(d_->model->lead(), d_->model->horizonNeeded(), d_->methodName());
-  d_->model->setCache(d_->jobs->cache());
+  d_->ensureForecasts();
   lap("ensure");
   d_->redraw();
   lap("redraw");
@@ -645,7 +545,7 @@ void DateStudyPanel::setNight(cb::Date night) {
   lap("overrides");
   d_->applyForecast();
   lap("forecast");
-  if (d_->tabs->currentIndex() == 2) // the drill-down list is filled only when shown
+  if (d_->details->currentTab() == DateStudyDetails::ReservationsTab) // filled only when shown
     d_->fillReservations();
   lap("reservations");
   d_->requestProtection();
@@ -656,13 +556,13 @@ DateStudyModel *DateStudyPanel::model() const { return d_->model.get(); }
 DateStudyChart *DateStudyPanel::chart() const { return d_->chart; }
 QComboBox *DateStudyPanel::segmentPicker() const { return d_->segment; }
 QComboBox *DateStudyPanel::methodPicker() const { return d_->method; }
-QTableWidget *DateStudyPanel::segmentTable() const { return d_->segTable; }
-QTableWidget *DateStudyPanel::reservationTable() const { return d_->resTable; }
-QListWidget *DateStudyPanel::overrideHistory() const { return d_->ovHistory; }
+QTableWidget *DateStudyPanel::segmentTable() const { return d_->details->segmentTable(); }
+QTableWidget *DateStudyPanel::reservationTable() const { return d_->details->reservationTable(); }
+QListWidget *DateStudyPanel::overrideHistory() const { return d_->details->overrideHistory(); }
 bool DateStudyPanel::isComputing() const {
   return d_->jobs->forecasting() || d_->jobs->protecting();
 }
-QString DateStudyPanel::forecastText() const { return d_->fcValue->text(); }
+QString DateStudyPanel::forecastText() const { return d_->details->forecastText(); }
 qint64 DateStudyPanel::lastNightSwitchMicros() const { return d_->nightMicros; }
 qint64 DateStudyPanel::lastMethodSwitchMicros() const { return d_->methodMicros; }
 
@@ -680,7 +580,7 @@ bool DateStudyPanel::saveOverride(double value, const QString &reason) {
     d_->status->setText(tr("Override not saved: %1").arg(q(std::string(e.what()))));
     return false;
   }
-  d_->ovReason->clear();
+  d_->details->clearOverrideReason();
   d_->readOverrides();
   d_->loadOverrides();
   d_->applyForecast();
@@ -693,7 +593,7 @@ void DateStudyPanel::showReservations() {
   if (!d_->model)
     return;
   d_->fillReservations();
-  d_->tabs->setCurrentIndex(2);
+  d_->details->showTab(DateStudyDetails::ReservationsTab);
 }
 
 } // namespace cbui

@@ -9,6 +9,7 @@
 class QComboBox;
 class QTableWidget;
 class QListWidget;
+class QShowEvent;
 
 // Forward declarations only: moc of Qt 6.4 cannot parse the C++20 library headers core uses.
 namespace cb {
@@ -31,6 +32,10 @@ public:
   void setSession(WorkbenchSession *session);
   /// Shows one night (redraws within the night-switch budget, 50 ms on the sample property).
   void setNight(cb::Date night);
+  /// Starts the background forecasts of every method (done by itself when the panel is first
+  /// shown; the window calls it once the first screen is drawn, so the cache is warm early
+  /// without slowing the start).
+  void startBackgroundWork();
 
   // For tests and the benchmark.
   DateStudyModel *model() const;
@@ -51,6 +56,9 @@ public:
   bool saveOverride(double value, const QString &reason);
   /// The drill-down: lists the reservations behind the OTB figure and shows them.
   void showReservations();
+
+protected:
+  void showEvent(QShowEvent *event) override;
 
 signals:
   /// The user asked for the previous / next night (keyboard or buttons); the window decides.

@@ -1,5 +1,7 @@
 #include "ui/horizonmodel.h"
 
+#include "ui/csvexport.h"
+
 #include "core/curvecube.h"
 #include "core/forecastrun.h"
 #include "core/holidaymap.h"
@@ -232,7 +234,7 @@ QVariant HorizonModel::data(const QModelIndex &index, int role) const {
   case Qt::ToolTipRole:
     if (!data_.segment.isEmpty() && hotelLevel)
       return QStringLiteral("Hotel-level figure: capacity is shared by every segment, so it is "
-                            "shown for All segments only.");
+                            "shown for Hotel total only.");
     if (c == Night)
       return QStringLiteral("%1 days ahead; capacity %2 rooms%3")
           .arg(r.lead)
@@ -251,14 +253,7 @@ QVariant HorizonModel::data(const QModelIndex &index, int role) const {
 }
 
 QString HorizonModel::toCsv() const {
-  auto quote = [](QString t) {
-    if (t.contains(QLatin1Char(',')) || t.contains(QLatin1Char('"')) ||
-        t.contains(QLatin1Char('\n'))) {
-      t.replace(QStringLiteral("\""), QStringLiteral("\"\""));
-      t = QLatin1Char('"') + t + QLatin1Char('"');
-    }
-    return t;
-  };
+  auto quote = [](const QString &t) { return csvField(t); }; // formula injection neutralised
   auto num = [](const auto &v, int decimals) {
     return v ? QString::number(static_cast<double>(*v), 'f', decimals) : QString();
   };

@@ -84,7 +84,7 @@ HorizonPanel::HorizonPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   const int preset = d_->lengthCombo->findData(days);
   d_->lengthCombo->setCurrentIndex(preset >= 0 ? preset : d_->lengthCombo->count() - 1);
   d_->segmentCombo->setSizeAdjustPolicy(QComboBox::AdjustToContents);
-  d_->segmentCombo->addItem(QStringLiteral("All segments"), QString());
+  d_->segmentCombo->addItem(QStringLiteral("Hotel total"), QString());
   d_->busy->setRange(0, 0);
   d_->busy->setMaximumWidth(120);
   d_->busy->setMaximumHeight(14);
@@ -222,7 +222,7 @@ void HorizonPanel::setSession(WorkbenchSession *session) {
     const QString keep = d_->segmentCombo->currentData().toString();
     QSignalBlocker block(d_->segmentCombo);
     d_->segmentCombo->clear();
-    d_->segmentCombo->addItem(QStringLiteral("All segments"), QString());
+    d_->segmentCombo->addItem(QStringLiteral("Hotel total"), QString());
     for (const auto &s : session->segments()) {
       const QString code = QString::fromStdString(s.code);
       d_->segmentCombo->addItem(
@@ -259,11 +259,12 @@ void HorizonPanel::setSession(WorkbenchSession *session) {
                        .arg(result.method);
     if (!result.segment.isEmpty())
       what += QStringLiteral(" · segment %1: occupancy, ADR, sell-out and flags are hotel-level, "
-                             "see All segments")
+                             "see Hotel total")
                   .arg(result.segment);
     d_->status->setText(what);
     d_->model->setData(std::move(result));
     fitColumns();
+    emit outlookShown();
   });
   watcher->setFuture(QtConcurrent::run([copy, days, segment]() -> Result {
     try {

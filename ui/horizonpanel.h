@@ -23,6 +23,8 @@ signals:
   /// Double-click or Enter on a night: open it in Date Study. (A Qt type in signals: moc needs
   /// complete argument types and cannot read core's headers.)
   void nightActivated(QDate night);
+  /// A computed outlook is on screen (table and chart).
+  void outlookShown();
 
 private:
   void fitColumns();

@@ -1,10 +1,12 @@
 #include "ui/mainwindow.h"
 
+#include "core/datahealth.h"
 #include "core/reservationimporter.h"
 #include "core/samplestore.h"
 #include "core/store.h"
 #include "core/textformat.h"
 #include "ui/datestudypanel.h"
+#include "ui/findingspanel.h"
 #include "ui/horizonpanel.h"
 #include "ui/propertysummarypanel.h"
 #include "ui/workbenchsession.h"
@@ -18,7 +20,6 @@
 #include <QFileDialog>
 #include <QFutureWatcher>
 #include <QLabel>
-#include <QListWidget>
 #include <QMenu>
 #include <QMenuBar>
 #include <QMimeData>
@@ -27,10 +28,14 @@
 #include <QShortcut>
 #include <QStatusBar>
 #include <QTabWidget>
+#include <QTimer>
 #include <QToolBar>
+#include <QToolButton>
 #include <QUrl>
 #include <QtConcurrent/QtConcurrentRun>
 
+#include <algorithm>
+#include <atomic>
 #include <stdexcept>
 #include <variant>
 
@@ -67,19 +72,32 @@ LoadResult loadSession(const std::filesystem::path &store, bool buildSampleFirst
 struct ImportOutcome {
   bool written = false;
   QString summary;
-  QStringList findings;
+  cb::Findings findings;
 };
 
-ImportOutcome runImport(const std::filesystem::path &store, const std::filesystem::path &file) {
+bool importProgress(void *context, std::int64_t done, std::int64_t total) {
+  auto *control = static_cast<ImportControl *>(context);
+  control->done = done;
+  control->total = total;
+  return !control->cancel;
+}
+
+ImportOutcome runImport(const std::filesystem::path &store, const std::filesystem::path &file,
+                        ImportControl *control) {
   ImportOutcome out;
   try {
     auto db = cb::Store::open(store);
-    cb::ImportReport report = cb::importReservations(*db, file);
+    cb::ImportOptions options;
+    options.progress = importProgress;
+    options.progressContext = control;
+    cb::ImportReport report = cb::importReservations(*db, file, options);
     out.written = report.written;
-    for (const auto &f : report.findings)
-      out.findings << QString::fromStdString(f.toString());
+    out.findings = report.findings;
     out.summary =
-        report.written
+        report.cancelled
+            ? QStringLiteral("Import of %1 cancelled: nothing written, the store is as it was")
+                  .arg(QString::fromStdString(file.filename().string()))
+        : report.written
             ? QStringLiteral("Imported %1: %2 rows read, %3 added, %4 updated, %5 unchanged")
                   .arg(QString::fromStdString(file.filename().string()),
                        QString::fromStdString(cb::formatCount(report.log.rowsRead)),
@@ -101,7 +119,8 @@ MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
       summary_(new PropertySummaryPanel), dateStudy_(new DateStudyPanel), asOfEdit_(new QDateEdit),
       asOfNote_(new QLabel), progress_(new QProgressBar),
-      findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new QListWidget) {
+      findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new FindingsPanel),
+      findingsButton_(new QToolButton), cancelImport_(new QToolButton) {
   setWindowTitle(QStringLiteral("Curvebench"));
   setAcceptDrops(true);
 
@@ -141,7 +160,28 @@ MainWindow::MainWindow(QWidget *parent)
   progress_->setRange(0, 0);
   progress_->setMaximumWidth(160);
   progress_->hide();
+  cancelImport_->setText(QStringLiteral("Cancel import"));
+  cancelImport_->hide();
+  findingsButton_->setText(QStringLiteral("No findings"));
+  findingsButton_->setToolTip(
+      QStringLiteral("Import errors and data-health findings (show or hide)"));
+  findingsButton_->setAutoRaise(true);
   statusBar()->addPermanentWidget(progress_);
+  statusBar()->addPermanentWidget(cancelImport_);
+  statusBar()->addPermanentWidget(findingsButton_);
+  connect(findingsButton_, &QToolButton::clicked, this,
+          [this] { findingsDock_->setVisible(!findingsDock_->isVisible()); });
+  connect(cancelImport_, &QToolButton::clicked, this, &MainWindow::cancelImport);
+  connect(findings_, &FindingsPanel::countChanged, this, [this](int attention) {
+    const int all = findings_->count();
+    findingsButton_->setText(all == 0         ? QStringLiteral("No findings")
+                             : attention == 0 ? QStringLiteral("%1 notes").arg(all)
+                                              : QStringLiteral("⚠ %1 findings").arg(all));
+  });
+  connect(findings_, &FindingsPanel::nightRequested, this, [this](const QDate &night) {
+    showNight(fromQDate(night));
+    showScreen(DateStudyScreen);
+  });
 
   for (int i = 0; i < 3; ++i) {
     auto *sc = new QShortcut(QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_1 + i)), this);
@@ -152,6 +192,11 @@ MainWindow::MainWindow(QWidget *parent)
   connect(horizon_, &HorizonPanel::nightActivated, this, [this](const QDate &night) {
     showNight(fromQDate(night));
     showScreen(DateStudyScreen);
+  });
+  // Once the first screen is drawn: warm Date Study's forecasts and check the data's health.
+  connect(horizon_, &HorizonPanel::outlookShown, this, [this] {
+    dateStudy_->startBackgroundWork();
+    startHealthCheck();
   });
   connect(dateStudy_, &DateStudyPanel::nightStepRequested, this, [this](int days) {
     if (night_.isValid())
@@ -259,10 +304,39 @@ void MainWindow::setIdle(const QString &message) {
   centralWidget()->setEnabled(true);
 }
 
-void MainWindow::showFindings(const QStringList &lines) {
-  findings_->clear();
-  findings_->addItems(lines);
-  findingsDock_->setVisible(!lines.isEmpty());
+void MainWindow::cancelImport() {
+  if (!importControl_)
+    return;
+  importControl_->cancel = true;
+  statusBar()->showMessage(QStringLiteral("Cancelling the import …"));
+}
+
+void MainWindow::startHealthCheck() {
+  if (!session_ || healthChecked_)
+    return;
+  healthChecked_ = true;
+  const std::filesystem::path store = session_->path();
+  auto *watcher = new QFutureWatcher<cb::Findings>(this);
+  connect(watcher, &QFutureWatcher<cb::Findings>::finished, this, [this, watcher, store] {
+    const cb::Findings found = watcher->result();
+    watcher->deleteLater();
+    if (!session_ || session_->path() != store)
+      return; // another store was opened meanwhile
+    findings_->setFindings(QStringLiteral("health"),
+                           QStringLiteral("Data health of %1: %2 finding(s)")
+                               .arg(QString::fromStdString(store.filename().string()))
+                               .arg(found.size()),
+                           found);
+  });
+  // A store handle of its own: the check reads while the screens use the session.
+  watcher->setFuture(QtConcurrent::run([store]() -> cb::Findings {
+    try {
+      return cb::checkDataHealth(*cb::Store::open(store));
+    } catch (const std::exception &e) {
+      return {cb::Finding{cb::Severity::Warning, store.string(), 0, 0,
+                          std::string("data health not checked: ") + e.what()}};
+    }
+  }));
 }
 
 void MainWindow::openStore(const std::filesystem::path &store) {
@@ -305,26 +379,52 @@ void MainWindow::importCsv(const std::filesystem::path &file) {
   }
   importing_ = true;
   const std::filesystem::path store = session_->path();
+  importControl_ = std::make_shared<ImportControl>();
+  progress_->setRange(0, 0);
   progress_->show();
-  statusBar()->showMessage(
-      QStringLiteral("Importing %1 …").arg(QString::fromStdString(file.filename().string())));
-  auto *watcher = new QFutureWatcher<ImportOutcome>(this);
-  connect(watcher, &QFutureWatcher<ImportOutcome>::finished, this, [this, watcher, store] {
-    ImportOutcome r = watcher->result();
-    watcher->deleteLater();
-    importing_ = false;
-    showFindings(r.findings);
-    setIdle(r.summary);
-    emit importFinished(r.written);
-    if (r.written)
-      openStore(store);
+  cancelImport_->show();
+  const QString name = QString::fromStdString(file.filename().string());
+  statusBar()->showMessage(QStringLiteral("Importing %1 …").arg(name));
+  // The progress bar follows the importer's row count (its total is the file size estimate).
+  auto *poll = new QTimer(this);
+  connect(poll, &QTimer::timeout, this, [this, control = importControl_] {
+    const auto total = control->total.load(), done = control->done.load();
+    if (total > 0) {
+      progress_->setRange(0, 1000);
+      progress_->setValue(static_cast<int>(std::min<std::int64_t>(1000, done * 1000 / total)));
+    }
   });
-  watcher->setFuture(QtConcurrent::run([store, file] { return runImport(store, file); }));
+  poll->start(100);
+  auto *watcher = new QFutureWatcher<ImportOutcome>(this);
+  connect(watcher, &QFutureWatcher<ImportOutcome>::finished, this,
+          [this, watcher, store, name, poll] {
+            ImportOutcome r = watcher->result();
+            watcher->deleteLater();
+            poll->deleteLater();
+            importing_ = false;
+            importControl_.reset();
+            cancelImport_->hide();
+            progress_->setRange(0, 0);
+            findings_->setFindings(
+                QStringLiteral("import"),
+                QStringLiteral("Import of %1: %2 finding(s)").arg(name).arg(r.findings.size()),
+                r.findings);
+            if (!r.findings.empty())
+              findingsDock_->show();
+            setIdle(r.summary);
+            emit importFinished(r.written);
+            if (r.written)
+              openStore(store);
+          });
+  auto control = importControl_;
+  watcher->setFuture(
+      QtConcurrent::run([store, file, control] { return runImport(store, file, control.get()); }));
 }
 
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   dateStudy_->setSession(nullptr); // its jobs must end before the old session goes
   session_ = std::move(session);
+  healthChecked_ = false;
   summary_->showSession(*session_);
   const QString path = QString::fromStdString(session_->path().string());
   setWindowTitle(

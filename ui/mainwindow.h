@@ -7,12 +7,14 @@
 #include <QDate>
 #include <QMainWindow>
 
+#include <atomic>
+#include <cstdint>
 #include <filesystem>
 #include <memory>
 
 class QDateEdit;
 class QLabel;
-class QListWidget;
+class QToolButton;
 class QMenu;
 class QProgressBar;
 class QTabWidget;
@@ -29,6 +31,13 @@ class WorkbenchSession;
 class DateStudyPanel;
 class PropertySummaryPanel;
 class HorizonPanel;
+class FindingsPanel;
+
+/// Cancel flag and progress of a background import (shared with the worker).
+struct ImportControl {
+  std::atomic<bool> cancel{false};
+  std::atomic<std::int64_t> done{0}, total{0};
+};
 
 class MainWindow : public QMainWindow {
   Q_OBJECT
@@ -57,6 +66,9 @@ public:
   DateStudyPanel *dateStudy() const { return dateStudy_; }
   PropertySummaryPanel *summaryPanel() const { return summary_; }
   HorizonPanel *horizonPanel() const { return horizon_; }
+  FindingsPanel *findingsPanel() const { return findings_; }
+  /// Cancels the running import (as its Cancel button does); nothing is written.
+  void cancelImport();
   /// The night Date Study shows.
   QDate studiedNight() const;
 
@@ -77,7 +89,7 @@ private:
   void setSession(std::unique_ptr<WorkbenchSession> session);
   void setBusy(const QString &what);
   void setIdle(const QString &message);
-  void showFindings(const QStringList &lines);
+  void startHealthCheck();
 
   std::unique_ptr<WorkbenchSession> session_;
   QTabWidget *tabs_;
@@ -90,8 +102,12 @@ private:
   QProgressBar *progress_;
   QMenu *recentMenu_ = nullptr;
   QDockWidget *findingsDock_;
-  QListWidget *findings_;
+  FindingsPanel *findings_;
+  QToolButton *findingsButton_;
+  QToolButton *cancelImport_;
+  std::shared_ptr<ImportControl> importControl_; ///< the running import's cancel flag, progress
   bool importing_ = false;
+  bool healthChecked_ = false;
 };
 
 } // namespace cbui
