@@ -129,9 +129,12 @@ int runGroups(const GroupsArgs &a) {
                                                     a.backtestLead, tentative);
     fmt::format_to(std::back_inserter(out),
                    "lead: {}\nnights: {} ({} … {})\nmean_actual_group_rooms: {:.2f}\n"
-                   "mean_expected_group_rooms: {:.2f}\nmae: {:.2f}\nbias: {:+.2f}\n",
+                   "mean_expected_group_rooms: {:.2f}\nmae: {:.2f}\nbias: {:+.2f}\n"
+                   "mae_whole_block: {:.2f}\nbias_whole_block: {:+.2f}\n"
+                   "mae_picked_up_only: {:.2f}\nbias_picked_up_only: {:+.2f}\n",
                    bt.lead, bt.nights, (asOf - 364).toIso(), asOf.toIso(), bt.meanActual,
-                   bt.meanExpected, bt.mae, bt.bias);
+                   bt.meanExpected, bt.mae, bt.bias, bt.maeWholeBlock, bt.biasWholeBlock,
+                   bt.maePickedUp, bt.biasPickedUp);
     emit(a.out, out);
     return kOk;
   }

@@ -18,6 +18,29 @@ std::vector<Reservation> transientRows(const std::vector<Reservation> &reservati
   return out;
 }
 
+Property transientProperty(const Property &property, const GroupModel &model,
+                           const std::vector<Reservation> &reservations, Date asOf) {
+  Property p = property;
+  if (reservations.empty())
+    return p;
+  Date first = asOf;
+  for (const auto &r : reservations)
+    first = std::min(first, r.arrival);
+  bool changed = false; // the night before carries a group change
+  for (Date s = first; s <= asOf; ++s) {
+    const double group = model.expectedRooms(s, asOf, 1.0);
+    if (group <= 0 && !changed)
+      continue;
+    const int full = property.capacityOn(s);
+    p.capacityChanges.push_back(
+        {s, std::max(0, full - static_cast<int>(std::lround(group))), "group rooms"});
+    changed = group > 0;
+  }
+  if (changed)
+    p.capacityChanges.push_back({asOf + 1, property.capacityOn(asOf + 1), "group rooms"});
+  return p;
+}
+
 void fillSplitCapacity(SplitNight &n) {
   n.capacityLeft = std::max(0.0, n.capacity - n.group);
   n.total = n.group + n.transient;
@@ -44,9 +67,10 @@ SplitForecast computeSplitForecast(const std::vector<Reservation> &reservations,
                                    const CensorSources &sources,
                                    const std::vector<EventNote> &events,
                                    const OutlookOptions &options) {
-  const Outlook transient =
-      computeOutlook(transientRows(reservations), property, sources, events, options);
   const GroupModel model(blocks, reservations);
+  const Outlook transient = computeOutlook(
+      transientRows(reservations), transientProperty(property, model, reservations, options.asOf),
+      sources, events, options);
   SplitForecast out;
   out.asOf = options.asOf;
   out.method = transient.method;
@@ -100,15 +124,28 @@ GroupBacktest backtestGroups(const std::vector<Reservation> &reservations,
       knownIds.insert(b.block.id);
     const GroupModel then(known, groupRows);
     const double actual = all.expectedRooms(s, s, tentativeProbability);
-    double expected = 0;
+    double expected = 0, whole = 0, picked = 0;
     for (std::size_t i = 0; i < then.blocks().size(); ++i) {
       const GroupBlock &b = then.blocks()[i].block;
-      if (b.arrival <= s && s < b.departure)
-        expected += then.expected(i, s, t, tentativeProbability).expected;
+      if (b.arrival <= s && s < b.departure) {
+        const BlockNight bn = then.expected(i, s, t, tentativeProbability);
+        expected += bn.expected;
+        picked += bn.pickedUp;
+        const double weight = b.status == BlockStatus::Tentative ? tentativeProbability : 1.0;
+        whole += bn.pickedUp +
+                 (t < b.cutoff ? weight * std::max(0, b.roomsPerNight - bn.pickedUp) : 0.0);
+      }
     }
     for (const auto &r : groupRows)
-      if (!knownIds.count(r.blockId) && r.onBooks(s, t))
+      if (!knownIds.count(r.blockId) && r.onBooks(s, t)) {
         expected += r.rooms;
+        whole += r.rooms;
+        picked += r.rooms;
+      }
+    bt.maeWholeBlock += std::abs(whole - actual);
+    bt.biasWholeBlock += whole - actual;
+    bt.maePickedUp += std::abs(picked - actual);
+    bt.biasPickedUp += picked - actual;
     ++bt.nights;
     absSum += std::abs(expected - actual);
     sum += expected - actual;
@@ -120,6 +157,10 @@ GroupBacktest backtestGroups(const std::vector<Reservation> &reservations,
     bt.bias = sum / bt.nights;
     bt.meanActual = actualSum / bt.nights;
     bt.meanExpected = expectedSum / bt.nights;
+    bt.maeWholeBlock /= bt.nights;
+    bt.biasWholeBlock /= bt.nights;
+    bt.maePickedUp /= bt.nights;
+    bt.biasPickedUp /= bt.nights;
   }
   return bt;
 }

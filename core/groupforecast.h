@@ -48,13 +48,21 @@ struct SplitForecast {
 /// Rows without a block id (transient business).
 std::vector<Reservation> transientRows(const std::vector<Reservation> &reservations);
 
+/// The property as transient business saw it: on each past night (up to asOf) the capacity is
+/// reduced by the group rooms that stayed, so that unconstraining the transient history treats a
+/// night that groups and transient filled together as censored at what groups left. Nights
+/// after asOf keep their capacity.
+Property transientProperty(const Property &property, const GroupModel &model,
+                           const std::vector<Reservation> &reservations, Date asOf);
+
 /// Fills capacityLeft and the constrained figures of `n` from its capacity, group, transient and
 /// transientSd (D ~ Normal(transient, transientSd), as the outlook). Capacity left 0: nothing
 /// transient sells (constrained 0, spill = transient, pSellout 1).
 void fillSplitCapacity(SplitNight &n);
 
 /// The split forecast of nights asOf + 1 … asOf + options.days. The transient part is
-/// computeOutlook() on transientRows() with `options` (its method, band and ADR); the group part
+/// computeOutlook() on transientRows() and transientProperty() with `options` (its method, band
+/// and ADR); the group part
 /// is the model's expected rooms with the property's tentative probability. A night the
 /// transient outlook leaves out is left out here too. Throws as computeOutlook.
 SplitForecast computeSplitForecast(const std::vector<Reservation> &reservations,
@@ -72,6 +80,10 @@ struct GroupBacktest {
   double meanActual = 0, meanExpected = 0;
   double mae = 0;  ///< mean |expected − actual|
   double bias = 0; ///< mean (expected − actual)
+  /// Two plain rules for comparison: the whole remaining block until the cutoff (no wash), and
+  /// the rooms picked up only.
+  double maeWholeBlock = 0, biasWholeBlock = 0;
+  double maePickedUp = 0, biasPickedUp = 0;
 };
 GroupBacktest backtestGroups(const std::vector<Reservation> &reservations,
                              const std::vector<BlockRecord> &blocks, Date from, Date to, int lead,

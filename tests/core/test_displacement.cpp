@@ -75,30 +75,4 @@ TEST(Displacement, TransientRateAndContinuationShare) {
   EXPECT_NEAR(cb::transientAdr(rows, d("2026-03-31")), 760.0 / 7.0, 1e-12);
 }
 
-// Capacity left after groups (core/groupforecast.h): capacity 140, groups 20 → 120 left for
-// D ~ N(100, 20): constrained 98.333691, spill 1.666309 (check-values.md §3), total constrained
-// 20 + 98.333691. Groups above capacity leave nothing: all transient demand spills.
-TEST(SplitForecast, ConstrainedFiguresUseTheCapacityLeftAfterGroups) {
-  cb::SplitNight n;
-  n.capacity = 140;
-  n.group = 20;
-  n.transient = 100;
-  n.transientSd = 20;
-  n.lo = 80;
-  n.hi = 125;
-  cb::fillSplitCapacity(n);
-  EXPECT_DOUBLE_EQ(n.capacityLeft, 120);
-  EXPECT_NEAR(n.transientConstrained, 98.333691, 1e-6); // check-values.md §3
-  EXPECT_NEAR(n.transientSpill, 1.666309, 1e-6);        // check-values.md §3
-  EXPECT_NEAR(n.constrainedTotal, 118.333691, 1e-6);
-  EXPECT_DOUBLE_EQ(n.total, 120);
-  EXPECT_DOUBLE_EQ(*n.totalLo, 100);
-  EXPECT_DOUBLE_EQ(*n.totalHi, 145);
-  n.group = 150;
-  cb::fillSplitCapacity(n);
-  EXPECT_DOUBLE_EQ(n.capacityLeft, 0);
-  EXPECT_DOUBLE_EQ(n.transientSpill, 100);
-  EXPECT_DOUBLE_EQ(n.constrainedTotal, 140);
-}
-
 } // namespace
