@@ -42,7 +42,8 @@ struct BlockNight {
 
 class GroupModel {
 public:
-  /// A segment with fewer past blocks than this at a lead borrows the all-segment wash.
+  /// A segment with fewer past blocks than this at a lead borrows the all-segment wash (our
+  /// choice, no source: a ratio over fewer blocks swings with one group).
   static constexpr int kMinBlocks = 5;
 
   /// `reservations` may hold transient rows too: only those with a block id are kept. A block

@@ -165,6 +165,13 @@ TEST_F(CliGroupsSample, BlocksListTentativeAndReleasedAndDisplaceCarriesTheCauti
   EXPECT_TRUE(has(r.out, ",tentative,")) << r.out;
   EXPECT_TRUE(has(r.out, ",definite,")) << r.out;
   EXPECT_TRUE(has(r.out, ",released\n")) << r.out;
+  // The committed sample blocks file reads back into the sample store unchanged.
+  r = cbtest::runCli(CURVEBENCH_CLI,
+                     "import-blocks " + q(*dir_ / "sample.curvebench") + " " +
+                         q(cbtest::sourceDir() / "sample_property" / "blocks.csv"),
+                     *dir_ / "stderr.txt");
+  ASSERT_EQ(r.code, 0) << r.err;
+  EXPECT_TRUE(has(r.out, "read 257 blocks, added 0, updated 0, unchanged 257")) << r.out;
   cbtest::writeFile(*dir_ / "offer.csv",
                     "night,rooms,rate,other_revenue,cost\n2026-12-14,20,95,20,12\n"
                     "2026-12-15,20,95,20,12\n");
