@@ -92,6 +92,20 @@ TEST_F(CliGroups, ImportThenBlocksWithHandFigures) {
   EXPECT_TRUE(has(r.err, "30d  50.0 % (1 all)")) << r.err; // GRP borrows the all-segment wash
 }
 
+TEST_F(CliGroups, TentativeProbabilityIsAPropertySetting) {
+  cbtest::writeFile(dir_ / "blocks.csv", kBlocks);
+  ASSERT_EQ(run("import-blocks " + q(store_) + " " + q(dir_ / "blocks.csv")).code, 0);
+  CliRun r = run("settings " + q(store_) + " --tentative-probability 80");
+  ASSERT_EQ(r.code, 0) << r.err;
+  EXPECT_TRUE(has(r.out, "tentative blocks  count at 80 %")) << r.out;
+  // Block C at 80 %: 2 + 0.8 × 6 × (1 − 5/6) = 2.8 a night → 5.60 room-nights.
+  r = run("groups " + q(store_) + " --as-of 2026-03-01");
+  ASSERT_EQ(r.code, 0) << r.err;
+  EXPECT_TRUE(has(r.out, ",5.60,well behind")) << r.out;
+  EXPECT_TRUE(has(r.err, "tentative blocks count at 80 %")) << r.err;
+  EXPECT_EQ(run("settings " + q(store_) + " --tentative-probability 120").code, 2);
+}
+
 TEST_F(CliGroups, StrictImportWritesNothingAndLocatesTheCell) {
   cbtest::writeFile(dir_ / "bad.csv", std::string(kBlocks) +
                                           "D,Rowers,GRP,2026-04-01,2026-04-03,x,2026-03-01,"
