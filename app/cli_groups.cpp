@@ -19,7 +19,7 @@ namespace cbcli {
 namespace {
 
 struct ImportBlocksArgs {
-  std::string store, file, profile;
+  std::string store, file, profile, rejects;
   bool lenient = false;
 };
 
@@ -37,6 +37,8 @@ int runImportBlocks(const ImportBlocksArgs &a) {
   cb::ImportOptions opt;
   opt.profile = a.profile;
   opt.mode = a.lenient ? cb::ImportMode::Lenient : cb::ImportMode::Strict;
+  if (!a.rejects.empty())
+    opt.rejectsFile = a.rejects;
   const cb::ImportReport rep = cb::importBlocks(*store, a.file, opt);
   for (const auto &f : rep.findings)
     fmt::print(stderr, "{}\n", f.toString());
@@ -206,7 +208,10 @@ void addGroupVerbs(CLI::App &app, VerbList &verbs) {
   imp->add_option("--profile", ib->profile,
                   "native (default) or a JSON blocks profile (\"kind\": \"blocks\"; see "
                   "core/blockprofile.h)");
-  imp->add_flag("--lenient", ib->lenient, "Write the valid rows; report the rejects");
+  auto *lenient =
+      imp->add_flag("--lenient", ib->lenient, "Write the valid rows; report the rejects");
+  imp->add_option("--rejects", ib->rejects, "With --lenient: copy rejected rows to this CSV")
+      ->needs(lenient);
   verbs.push_back({imp, [ib] { return runImportBlocks(*ib); }});
 
   auto g = std::make_shared<GroupsArgs>();

@@ -3,6 +3,7 @@
 
 #include "core/blockprofile.h"
 #include "core/csvreader.h"
+#include "core/nativeformat.h"
 #include "core/sha256.h"
 
 #include <date/date.h>
@@ -26,6 +27,13 @@ std::int64_t lineOf(const CsvRecord &rec, int column) {
     return rec.line;
   const auto i = std::min(static_cast<std::size_t>(column), rec.fields.size()) - 1;
   return rec.fields[i].line;
+}
+
+std::string csvLine(const CsvRecord &rec, std::string_view last) {
+  std::string line;
+  for (const auto &f : rec.fields)
+    line += quoteCsvField(f.text) + ',';
+  return line + quoteCsvField(last) + '\n';
 }
 
 } // namespace
@@ -80,6 +88,7 @@ ImportReport importBlocks(Store &store, const std::filesystem::path &file,
   if (!profile->bind(header, label, findings))
     return failed();
 
+  std::string rejected = lenient && options.rejectsFile ? csvLine(header, "problem") : "";
   tx.emplace(store);
   log.id = store.beginImport(log);
   std::unordered_map<std::string, std::int64_t> firstLine;
@@ -124,6 +133,12 @@ ImportReport importBlocks(Store &store, const std::filesystem::path &file,
     } else {
       rowErrors = true;
       ++log.rejected;
+      if (!rejected.empty()) {
+        std::string joined;
+        for (const auto &p : problems)
+          joined += (joined.empty() ? "" : "; ") + p.message;
+        rejected += csvLine(rec, joined);
+      }
       for (auto &p : problems)
         findings.push_back(
             Finding{Severity::Error, label, lineOf(rec, p.column), p.column, std::move(p.message)});
@@ -144,6 +159,19 @@ ImportReport importBlocks(Store &store, const std::filesystem::path &file,
                 fmt::format("{} of {} rows rejected; strict import: nothing was written",
                             log.rejected, log.rowsRead)});
     return failed();
+  }
+  if (log.rejected > 0 && !rejected.empty()) {
+    std::ofstream out(*options.rejectsFile, std::ios::binary | std::ios::trunc);
+    out << rejected;
+    out.flush();
+    if (!out) {
+      // The rows are not written either: the user would lose track of the rejects otherwise.
+      findings.push_back(
+          Finding{Severity::Error, label, 0, 0,
+                  fmt::format("cannot write the rejects file {}", options.rejectsFile->string())});
+      rep.ioOrUsageError = true;
+      return failed();
+    }
   }
   log.finishedAt = nowUtc();
   store.finishImport(log);

@@ -78,10 +78,17 @@ TEST_F(BlockImport, StrictWritesNothingAndPointsAtTheCell) {
   // Lenient: the good row is written, the three bad ones reported.
   cb::ImportOptions o;
   o.mode = cb::ImportMode::Lenient;
+  o.rejectsFile = dir / "rejects.csv";
   rep = cb::importBlocks(*store, dir / "blocks.csv", o);
   EXPECT_TRUE(rep.written);
   EXPECT_EQ(rep.log.added, 1);
   EXPECT_EQ(rep.log.rejected, 3);
+  const std::string rejects = cbtest::readFile(dir / "rejects.csv");
+  EXPECT_EQ(rejects.substr(0, rejects.find('\n')), std::string(kHeader).substr(0, 93) + ",problem");
+  EXPECT_NE(rejects.find("B3,,GRP,2026-05-01,2026-05-03,2,2026-05-02,definite,,,"
+                         "cutoff 2026-05-02 is after arrival 2026-05-01\n"),
+            std::string::npos)
+      << rejects;
 }
 
 TEST_F(BlockImport, MissingColumnAndHeaderOnlyAreFileErrors) {
