@@ -2,22 +2,33 @@
 
 #include "core/forecastmethod.h"
 
-#include <QThread>
 #include <QtConcurrent/QtConcurrent>
 
 #include <algorithm>
 
+#ifdef __linux__
+#include <sys/resource.h>
+#include <sys/syscall.h>
+#include <unistd.h>
+#endif
+
 namespace cbui {
 namespace {
 
-// Background work at idle priority (SCHED_IDLE on Linux) for its duration: on a busy machine
-// the UI thread keeps the CPU and a night switch stays quick.
-struct IdleThread {
-  IdleThread() { QThread::currentThread()->setPriority(QThread::IdlePriority); }
-  ~IdleThread() { QThread::currentThread()->setPriority(QThread::NormalPriority); }
-  IdleThread(const IdleThread &) = delete;
-  IdleThread &operator=(const IdleThread &) = delete;
-};
+// The pools' threads run at a lower priority (nice 10 on Linux): on a busy machine the UI thread
+// keeps the CPU and a night switch stays quick, yet the forecasts still progress when other
+// programs load the machine (idle scheduling starved them for minutes behind a compiler). The
+// pools are ours alone, so the threads stay at that priority; raising it back would need
+// privileges an ordinary user does not have.
+void lowerThreadPriority() {
+#ifdef __linux__
+  thread_local bool done = false;
+  if (!done) {
+    setpriority(PRIO_PROCESS, static_cast<id_t>(syscall(SYS_gettid)), 10);
+    done = true;
+  }
+#endif
+}
 
 } // namespace
 
@@ -113,7 +124,7 @@ void DateStudyJobs::startNext() {
   const cb::Date asOf = asOf_;
   const int horizon = horizon_;
   auto f = QtConcurrent::run(&forecastPool_, [s, asOf, horizon, group, prog] {
-    IdleThread idle;
+    lowerThreadPriority();
     return computeForecastCache(*s, asOf, horizon, group, prog.get());
   });
   running_.push_back(f);
@@ -164,7 +175,7 @@ void DateStudyJobs::requestProtection(cb::Date night, const std::string &method)
   WorkbenchSession *s = session_;
   const cb::Date asOf = session_->readingDate();
   auto f = QtConcurrent::run(&protectionPool_, [s, night, asOf, method] {
-    IdleThread idle;
+    lowerThreadPriority();
     ProtectionOut out{night, asOf, method, std::nullopt, {}};
     try {
       out.protection = computeProtection(*s, asOf, night, method);
