@@ -23,7 +23,8 @@ const QColor kOkabeIto[] = {QColor(0x00, 0x72, 0xB2), QColor(0xE6, 0x9F, 0x00),
                             QColor(0x56, 0xB4, 0xE9), QColor(0xD5, 0x5E, 0x00),
                             QColor(0xF0, 0xE4, 0x42)};
 
-// Mean over nights of OTB(s, s − d) where known, and Σ OTB / Σ Final over nights with a final.
+// Mean over nights of OTB(s, s − d) where every night's cell is known, and Σ OTB / Σ Final over
+// nights with a final.
 void fillCurves(const cb::CurveCube &cube, std::size_t si, const std::vector<cb::Date> &nights,
                 int maxDba, std::vector<std::optional<double>> &rooms,
                 std::vector<std::optional<double>> &share) {
@@ -45,7 +46,7 @@ void fillCurves(const cb::CurveCube &cube, std::size_t si, const std::vector<cb:
         ++n;
       }
     const auto i = static_cast<std::size_t>(d);
-    if (n > 0)
+    if (n == static_cast<int>(nights.size())) // every night known: one set of nights per lead
       rooms[i] = static_cast<double>(sum) / n;
     if (finals > 0) {
       long onBooks = 0;
@@ -226,6 +227,7 @@ QVariant SegmentCompareTable::data(const QModelIndex &index, int role) const {
     if (index.column() == Segment)
       return qs(r.code);
     return v ? QVariant(*v) : QVariant(QString());
+  case Qt::ToolTipRole: return index.column() == Segment ? QVariant(r.label) : QVariant();
   case Qt::DecorationRole: return index.column() == Segment ? QVariant(r.colour) : QVariant();
   case Qt::TextAlignmentRole:
     return index.column() == Segment ? QVariant((Qt::AlignLeft | Qt::AlignVCenter).toInt())
@@ -237,8 +239,8 @@ QVariant SegmentCompareTable::data(const QModelIndex &index, int role) const {
 QVariant SegmentCompareTable::headerData(int section, Qt::Orientation orientation, int role) const {
   if (orientation != Qt::Horizontal || section < 0 || section >= ColumnCount)
     return {};
-  static const char *const names[] = {"Segment",         "OTB now",       "STLY OTB",    "vs STLY",
-                                      "Final this year", "Final last yr", "Share of OTB"};
+  static const char *const names[] = {"Segment", "OTB now",  "STLY OTB",    "vs STLY",
+                                      "Final",   "LY final", "Share of OTB"};
   static const char *const tips[] = {
       "Segment (hotel total first)",
       "Rooms on the books per night at the reading date (average over the nights chosen)",

@@ -28,8 +28,9 @@ struct SegmentCompareSeries {
   std::string code;
   QString label; ///< "Corporate negotiated (CORP)"
   QColor colour; ///< the segment's own colour, else Okabe–Ito by position
-  /// Curves by days before arrival, index d = 0 … maxDba. Rooms: mean over the nights whose
-  /// cell is known at the reading date; nullopt where none is. Share: Σ OTB(s, s − d) / Σ Final(s)
+  /// Curves by days before arrival, index d = 0 … maxDba. Rooms: mean over the nights, where
+  /// every night's cell is known at the reading date (so one curve never mixes two sets of
+  /// nights); nullopt otherwise. Share: Σ OTB(s, s − d) / Σ Final(s)
   /// over the nights whose final is known (and Σ Final > 0); nullopt otherwise.
   std::vector<std::optional<double>> rooms, share;
   std::vector<std::optional<double>> lastYearRooms, lastYearShare; ///< same, last year's nights

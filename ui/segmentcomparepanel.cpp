@@ -109,8 +109,10 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   d_->lastYear->setChecked(true);
   d_->lastYear->setToolTip(QStringLiteral("Last year's comparable nights (the property's STLY "
                                           "alignment and event pairs), dashed"));
-  d_->segments->setMaximumWidth(230);
+  d_->segments->setFixedWidth(268);
   d_->segments->setToolTip(QStringLiteral("Segments to draw; their colours are the lines'"));
+  // The status may be long: it must not widen the window past 1366 pixels (full text as tooltip).
+  d_->status->setSizePolicy(QSizePolicy::Ignored, QSizePolicy::Preferred);
   d_->busy->setRange(0, 0);
   d_->busy->setMaximumWidth(100);
   d_->busy->setMaximumHeight(14);
@@ -143,6 +145,11 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   d_->table->setEditTriggers(QAbstractItemView::NoEditTriggers);
   d_->table->setSelectionMode(QAbstractItemView::NoSelection);
   d_->table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
+  // Long segment names elide (full name in the tooltip) so every figure column fits.
+  d_->table->horizontalHeader()->setSectionResizeMode(SegmentCompareTable::Segment,
+                                                      QHeaderView::Interactive);
+  d_->table->setColumnWidth(SegmentCompareTable::Segment, 118);
+  d_->table->setWordWrap(false);
   d_->table->verticalHeader()->setDefaultSectionSize(d_->table->fontMetrics().height() + 6);
 
   auto *grid = new QGridLayout;
@@ -150,8 +157,8 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   grid->addWidget(d_->table, 0, 1);
   grid->addWidget(d_->window, 1, 0);
   grid->addWidget(d_->rate, 1, 1);
-  grid->setColumnStretch(0, 5);
-  grid->setColumnStretch(1, 4);
+  grid->setColumnStretch(0, 3);
+  grid->setColumnStretch(1, 2);
   grid->setRowStretch(0, 3);
   grid->setRowStretch(1, 2);
 
@@ -338,6 +345,7 @@ void SegmentComparePanel::redraw() {
   for (const auto &s : d_->data->series)
     for (const auto &v : s.share)
       anyFinal = anyFinal || v.has_value();
+  d_->status->setToolTip(d_->what);
   d_->status->setText(share && !anyFinal ? d_->what + QStringLiteral(" · no finals yet: % of "
                                                                      "final shows last year only")
                                          : d_->what);

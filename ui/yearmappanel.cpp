@@ -63,6 +63,7 @@ YearMapPanel::YearMapPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   d_->segment->setSizeAdjustPolicy(QComboBox::AdjustToContents);
   d_->segment->setToolTip(QStringLiteral("A segment colours each night by its share of the "
                                          "hotel's rooms (actual or forecast)"));
+  d_->status->setSizePolicy(QSizePolicy::Ignored, QSizePolicy::Preferred);
   d_->busy->setRange(0, 0);
   d_->busy->setMaximumWidth(100);
   d_->busy->setMaximumHeight(14);
