@@ -15,9 +15,12 @@
 #include "ui/yearmappanel.h"
 #include "ui/yearmapview.h"
 
+#include <QApplication>
+#include <QHelpEvent>
 #include <QSignalSpy>
 #include <QStandardPaths>
 #include <QTest>
+#include <QToolTip>
 
 #include <memory>
 
@@ -151,6 +154,11 @@ private slots:
     QTest::mouseClick(view, Qt::LeftButton, {}, cell.center());
     QCOMPARE(activated.size(), 1);
     QCOMPARE(activated.at(0).at(0).toDate(), QDate(2025, 8, 1));
+    // Hover: the night's figures (19 of 20 rooms, peak) in the tooltip.
+    QHelpEvent help(QEvent::ToolTip, cell.center(), view->mapToGlobal(cell.center()));
+    QApplication::sendEvent(view, &help);
+    QVERIFY(QToolTip::text().contains(QStringLiteral("Actual: 19 rooms")));
+    QVERIFY(QToolTip::text().contains(QStringLiteral("season peak")));
     // Segment filter: the colouring follows the segment's share; exports write files.
     panel.setSegment(QStringLiteral("CORP"));
     cbtest::TempDir out;
