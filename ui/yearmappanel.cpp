@@ -215,9 +215,10 @@ void YearMapPanel::redraw() {
   d_->view->setMap(&data, colouring, std::max(segment, 0), title);
   d_->status->setText(data.method.empty()
                           ? QStringLiteral("Every night of %1 is past: actuals").arg(data.year)
-                          : QStringLiteral("Forecast method %1 · hover a night for its figures, "
-                                           "click to open it in Date Study")
+                          : QStringLiteral("Forecast: %1 · hover a night for its figures, click "
+                                           "it for Date Study")
                                 .arg(QString::fromStdString(data.method)));
+  d_->status->setToolTip(d_->status->text());
 }
 
 } // namespace cbui

@@ -108,8 +108,11 @@ void YearMapView::paintMap(QPainter &p, const QRect &area) const {
       const auto i = static_cast<std::size_t>(jan1.daysTo(date));
       const YearMapCell cell = yearMapCell(*data_, i, colouring, segment);
       p.fillRect(c, cell.fill);
-      if (!data_->nights[i].past && cell.band >= 0) // forecast: hatched
-        p.fillRect(c, QBrush(QColor(255, 255, 255, 120), Qt::BDiagPattern));
+      if (!data_->nights[i].past && cell.band >= 0) { // forecast: hatched in the ink colour
+        QColor hatch = cell.ink;
+        hatch.setAlpha(70);
+        p.fillRect(c, QBrush(hatch, Qt::BDiagPattern));
+      }
       const bool weekend = date.dayOfWeek() >= 6;
       p.setFont(tiny);
       p.setPen(cell.ink);
@@ -145,8 +148,8 @@ void YearMapView::paintMap(QPainter &p, const QRect &area) const {
     x += 26 + fm.horizontalAdvance(e.label) + 14;
   }
   QRect hatch(x, y, 22, 18);
-  p.fillRect(hatch, QColor(0xBB, 0xBB, 0xBB));
-  p.fillRect(hatch, QBrush(QColor(255, 255, 255, 160), Qt::BDiagPattern));
+  p.fillRect(hatch, QColor(0xEE, 0xEE, 0xEE));
+  p.fillRect(hatch, QBrush(QColor(0, 0, 0, 70), Qt::BDiagPattern));
   p.setPen(Qt::black);
   const QString marks = QStringLiteral("forecast (after the reading date)   ▭ thick outline: "
                                        "reading date   ▁ bar: weekend   grey: no figure");
