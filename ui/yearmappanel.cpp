@@ -18,6 +18,7 @@
 #include <QVBoxLayout>
 #include <QtConcurrent/QtConcurrentRun>
 
+#include <algorithm>
 #include <memory>
 #include <optional>
 #include <variant>
@@ -135,7 +136,11 @@ void YearMapPanel::setSession(WorkbenchSession *session) {
   }
   if (fresh) {
     QSignalBlocker a(d_->year), b(d_->segment);
-    d_->year->setValue(session->readingDate().year());
+    // Years with data, and the next one (its nights are forecast as far as 365 days ahead).
+    const int last = session->readingDate().year();
+    const auto &first = session->summary().firstArrival;
+    d_->year->setRange(first ? std::min(first->year(), last) : last, last + 1);
+    d_->year->setValue(last);
     d_->segment->clear();
     d_->segment->addItem(QStringLiteral("Hotel total"), QString());
     for (const auto &s : session->segments()) {
