@@ -31,7 +31,8 @@ int main(int argc, char **argv) {
                           QStringLiteral("FILE"));
   parser.addOption(shot);
   QCommandLineOption screen(QStringLiteral("screen"),
-                            QStringLiteral("Screen to show: horizon, date-study or property"),
+                            QStringLiteral("Screen to show: horizon, date-study, segment-compare, "
+                                           "year-map or property"),
                             QStringLiteral("NAME"));
   parser.addOption(screen);
   QCommandLineOption size(QStringLiteral("size"),
@@ -49,6 +50,9 @@ int main(int argc, char **argv) {
   if (parser.isSet(screen)) {
     const QString name = parser.value(screen);
     window.showScreen(name == QLatin1String("date-study") ? cbui::MainWindow::DateStudyScreen
+                      : name == QLatin1String("segment-compare")
+                          ? cbui::MainWindow::SegmentCompareScreen
+                      : name == QLatin1String("year-map") ? cbui::MainWindow::YearMapScreen
                       : name == QLatin1String("property") ? cbui::MainWindow::PropertyScreen
                                                           : cbui::MainWindow::HorizonScreen);
   }

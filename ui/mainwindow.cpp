@@ -9,7 +9,9 @@
 #include "ui/findingspanel.h"
 #include "ui/horizonpanel.h"
 #include "ui/propertysummarypanel.h"
+#include "ui/segmentcomparepanel.h"
 #include "ui/workbenchsession.h"
+#include "ui/yearmappanel.h"
 
 #include <QAction>
 #include <QCloseEvent>
@@ -117,7 +119,8 @@ ImportOutcome runImport(const std::filesystem::path &store, const std::filesyste
 
 MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
-      summary_(new PropertySummaryPanel), dateStudy_(new DateStudyPanel), asOfEdit_(new QDateEdit),
+      summary_(new PropertySummaryPanel), compare_(new SegmentComparePanel),
+      yearMap_(new YearMapPanel), dateStudy_(new DateStudyPanel), asOfEdit_(new QDateEdit),
       asOfNote_(new QLabel), progress_(new QProgressBar),
       findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new FindingsPanel),
       findingsButton_(new QToolButton), cancelImport_(new QToolButton) {
@@ -146,10 +149,16 @@ MainWindow::MainWindow(QWidget *parent)
 
   tabs_->addTab(horizon_, QStringLiteral("Horizon"));
   tabs_->addTab(dateStudy_, QStringLiteral("Date Study"));
+  tabs_->addTab(compare_, QStringLiteral("Segment Compare"));
+  tabs_->addTab(yearMap_, QStringLiteral("Year Map"));
   tabs_->addTab(summary_, QStringLiteral("Property"));
   tabs_->setTabToolTip(0, QStringLiteral("The next nights at a glance (Ctrl+1)"));
   tabs_->setTabToolTip(1, QStringLiteral("One night in depth (Ctrl+2)"));
-  tabs_->setTabToolTip(2, QStringLiteral("The property and its data (Ctrl+3)"));
+  tabs_->setTabToolTip(2, QStringLiteral("Segments side by side: curves, booking window, rate by "
+                                         "lead, this year vs last year (Ctrl+3)"));
+  tabs_->setTabToolTip(3, QStringLiteral("A whole year of nights by season class or demand "
+                                         "(Ctrl+4)"));
+  tabs_->setTabToolTip(4, QStringLiteral("The property and its data (Ctrl+5)"));
   setCentralWidget(tabs_);
 
   findingsDock_->setObjectName(QStringLiteral("findingsDock"));
@@ -183,13 +192,17 @@ MainWindow::MainWindow(QWidget *parent)
     showScreen(DateStudyScreen);
   });
 
-  for (int i = 0; i < 3; ++i) {
+  for (int i = 0; i < 5; ++i) {
     auto *sc = new QShortcut(QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_1 + i)), this);
     connect(sc, &QShortcut::activated, this, [this, i] { tabs_->setCurrentIndex(i); });
   }
   buildMenus();
 
   connect(horizon_, &HorizonPanel::nightActivated, this, [this](const QDate &night) {
+    showNight(fromQDate(night));
+    showScreen(DateStudyScreen);
+  });
+  connect(yearMap_, &YearMapPanel::nightActivated, this, [this](const QDate &night) {
     showNight(fromQDate(night));
     showScreen(DateStudyScreen);
   });
@@ -206,8 +219,10 @@ MainWindow::MainWindow(QWidget *parent)
     if (session_ && fromQDate(date) != session_->readingDate())
       setReadingDate(fromQDate(date));
   });
-  connect(tabs_, &QTabWidget::currentChanged, this,
-          [](int i) { settings().setValue(QStringLiteral("window/screen"), i); });
+  connect(tabs_, &QTabWidget::currentChanged, this, [this](int i) {
+    settings().setValue(QStringLiteral("window/screen"), i);
+    refreshLazyScreens();
+  });
 
   resize(1366, 740);
   QSettings s = settings();
@@ -221,6 +236,21 @@ MainWindow::~MainWindow() {
   // panels, children of the window, are destroyed after its members).
   dateStudy_->setSession(nullptr);
   horizon_->setSession(nullptr);
+  compare_->setSession(nullptr);
+  yearMap_->setSession(nullptr);
+}
+
+void MainWindow::refreshLazyScreens() {
+  if (!session_)
+    return;
+  if (compareStale_ && tabs_->currentWidget() == compare_) {
+    compareStale_ = false;
+    compare_->setSession(session_.get());
+  }
+  if (yearMapStale_ && tabs_->currentWidget() == yearMap_) {
+    yearMapStale_ = false;
+    yearMap_->setSession(session_.get());
+  }
 }
 
 void MainWindow::buildMenus() {
@@ -250,8 +280,9 @@ void MainWindow::buildMenus() {
   connect(quit, &QAction::triggered, this, &QWidget::close);
 
   QMenu *view = menuBar()->addMenu(QStringLiteral("&View"));
-  const char *names[] = {"&Horizon\tCtrl+1", "&Date Study\tCtrl+2", "&Property\tCtrl+3"};
-  for (int i = 0; i < 3; ++i)
+  const char *names[] = {"&Horizon\tCtrl+1", "&Date Study\tCtrl+2", "&Segment Compare\tCtrl+3",
+                         "&Year Map\tCtrl+4", "&Property\tCtrl+5"};
+  for (int i = 0; i < 5; ++i)
     connect(view->addAction(QString::fromUtf8(names[i])), &QAction::triggered, this,
             [this, i] { tabs_->setCurrentIndex(i); });
   view->addAction(findingsDock_->toggleViewAction());
@@ -451,6 +482,10 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
                    toQDate(session_->readingDate()).toString(kDateFormat)));
   horizon_->setSession(session_.get());
   dateStudy_->setSession(session_.get());
+  compare_->setSession(nullptr); // the old session is gone; recomputed when shown
+  yearMap_->setSession(nullptr);
+  compareStale_ = yearMapStale_ = true;
+  refreshLazyScreens();
   showNight(session_->defaultNight());
   emit sessionLoaded();
 }
@@ -480,6 +515,8 @@ bool MainWindow::setReadingDate(cb::Date date) {
                                .arg(toQDate(date).toString(kDateFormat)));
   horizon_->setSession(session_.get());
   dateStudy_->setSession(session_.get());
+  compareStale_ = yearMapStale_ = true;
+  refreshLazyScreens();
   if (night_.isValid())
     showNight(fromQDate(night_));
   return true;

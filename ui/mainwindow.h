@@ -1,5 +1,6 @@
 // The workbench window: opens a store off the UI thread and shows its screens — Horizon (the next
-// N nights), Date Study (one night) and the property — under a prominent, changeable reading date
+// N nights), Date Study (one night), Segment Compare, Year Map and the property — under a
+// prominent, changeable reading date
 // ("As of"). Remembers geometry, the last screen and recent stores; a CSV dropped on the window is
 // imported into the open store in the background, its findings listed in a dock, not a dialog.
 #pragma once
@@ -31,6 +32,8 @@ class WorkbenchSession;
 class DateStudyPanel;
 class PropertySummaryPanel;
 class HorizonPanel;
+class SegmentComparePanel;
+class YearMapPanel;
 class FindingsPanel;
 
 /// Cancel flag and progress of a background import (shared with the worker).
@@ -42,7 +45,13 @@ struct ImportControl {
 class MainWindow : public QMainWindow {
   Q_OBJECT
 public:
-  enum Screen { HorizonScreen = 0, DateStudyScreen = 1, PropertyScreen = 2 };
+  enum Screen {
+    HorizonScreen = 0,
+    DateStudyScreen = 1,
+    SegmentCompareScreen = 2,
+    YearMapScreen = 3,
+    PropertyScreen = 4
+  };
 
   explicit MainWindow(QWidget *parent = nullptr);
   ~MainWindow() override;
@@ -66,6 +75,8 @@ public:
   DateStudyPanel *dateStudy() const { return dateStudy_; }
   PropertySummaryPanel *summaryPanel() const { return summary_; }
   HorizonPanel *horizonPanel() const { return horizon_; }
+  SegmentComparePanel *segmentComparePanel() const { return compare_; }
+  YearMapPanel *yearMapPanel() const { return yearMap_; }
   FindingsPanel *findingsPanel() const { return findings_; }
   /// Cancels the running import (as its Cancel button does); nothing is written.
   void cancelImport();
@@ -90,11 +101,17 @@ private:
   void setBusy(const QString &what);
   void setIdle(const QString &message);
   void startHealthCheck();
+  /// Segment Compare and Year Map compute only when shown: gives the session to the one on
+  /// screen when it has not seen the current session / reading date yet.
+  void refreshLazyScreens();
 
   std::unique_ptr<WorkbenchSession> session_;
   QTabWidget *tabs_;
   HorizonPanel *horizon_;
   PropertySummaryPanel *summary_;
+  SegmentComparePanel *compare_;
+  YearMapPanel *yearMap_;
+  bool compareStale_ = true, yearMapStale_ = true;
   DateStudyPanel *dateStudy_;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;
