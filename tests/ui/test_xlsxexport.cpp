@@ -1,0 +1,147 @@
+// XLSX export (ui/xlsxexport.h): a table with numbers, negative numbers, text that a spreadsheet
+// would run as a formula and non-ASCII names is written to a path with spaces and non-ASCII
+// characters, then read back by a general-purpose reader — openpyxl, through
+// tests/reference/read_xlsx.py — which must see the same values with the right types: numbers as
+// numbers, "=1+1" as a string and no formula anywhere.
+#include "ui/csvexport.h"
+#include "ui/xlsxexport.h"
+
+#include <QDir>
+#include <QFile>
+#include <QJsonArray>
+#include <QJsonDocument>
+#include <QJsonObject>
+#include <QProcess>
+#include <QStandardItemModel>
+#include <QTemporaryDir>
+#include <QTest>
+
+namespace {
+
+QStandardItem *text(const QString &t) { return new QStandardItem(t); }
+// A figure as a screen shows it (grouped) with its plain value for exports.
+QStandardItem *figure(const QString &shown, const QString &plain) {
+  auto *i = new QStandardItem(shown);
+  i->setData(plain, cbui::kCsvValueRole);
+  return i;
+}
+
+// Reads the workbook with openpyxl; the JSON of read_xlsx.py's first sheet.
+QJsonObject readBack(const QString &file) {
+  QProcess p;
+  p.start(QStringLiteral(CURVEBENCH_PYTHON), {QStringLiteral(READ_XLSX_SCRIPT), file});
+  if (!p.waitForFinished(60000) || p.exitCode() != 0) {
+    qWarning("read_xlsx.py failed: %s", p.readAllStandardError().constData());
+    return {};
+  }
+  const QJsonDocument doc = QJsonDocument::fromJson(p.readAllStandardOutput());
+  return doc.object().value(QStringLiteral("sheets")).toArray().first().toObject();
+}
+
+// The cell at (row, column), 1-based as in the spreadsheet: [row, col, data_type, type, value].
+QJsonArray cellAt(const QJsonObject &sheet, int row, int column) {
+  for (const QJsonValue v : sheet.value(QStringLiteral("cells")).toArray()) {
+    const QJsonArray c = v.toArray();
+    if (c.at(0).toInt() == row && c.at(1).toInt() == column)
+      return c;
+  }
+  return {};
+}
+
+} // namespace
+
+class XlsxExportTest : public QObject {
+  Q_OBJECT
+private slots:
+  void valuesAndTypesSurviveAGeneralPurposeReader() {
+    QStandardItemModel model(0, 4);
+    model.setHorizontalHeaderLabels({QStringLiteral("Segment"), QStringLiteral("Rooms"),
+                                     QStringLiteral("Rate"), QStringLiteral("Note")});
+    model.appendRow({text(QStringLiteral("Übernachtung – Firmen")),
+                     figure(QStringLiteral("12"), QStringLiteral("12")),
+                     figure(QStringLiteral("-3.50"), QStringLiteral("-3.5")),
+                     text(QStringLiteral("=1+1"))});
+    model.appendRow({text(QStringLiteral("Reisegruppe 東京")),
+                     figure(QStringLiteral("-7"), QStringLiteral("-7")),
+                     figure(QStringLiteral("1,234.56"), QStringLiteral("1234.56")),
+                     text(QStringLiteral("@SUM(A1)"))});
+    model.appendRow({text(QStringLiteral("+x")), text(QStringLiteral("-cmd")),
+                     figure(QStringLiteral("n/a"), QStringLiteral("n/a")), text(QString())});
+
+    QTemporaryDir tmp;
+    QVERIFY(tmp.isValid());
+    const QString dir = tmp.filePath(QStringLiteral("exports with spaces ü é 東京"));
+    QVERIFY(QDir().mkpath(dir));
+    const QString file = dir + QStringLiteral("/Segmente März.xlsx");
+    QString error;
+    QVERIFY2(cbui::tableToXlsx(model, file, QStringLiteral("Segments: 2026/10"), &error),
+             qPrintable(error));
+    QVERIFY(QFile::exists(file));
+    QCOMPARE(QDir(dir).entryList(QDir::Files | QDir::Hidden).size(), 1); // no temporary left
+
+    const QJsonObject sheet = readBack(file);
+    QVERIFY(!sheet.isEmpty());
+    QCOMPARE(sheet.value(QStringLiteral("name")).toString(),
+             QStringLiteral("Segments_ 2026_10")); // ":" and "/" are not allowed in sheet names
+    QCOMPARE(sheet.value(QStringLiteral("freeze")).toString(), QStringLiteral("A2"));
+    for (const QJsonValue b : sheet.value(QStringLiteral("header_bold")).toArray())
+      QVERIFY(b.toBool());
+
+    auto expectText = [&](int r, int c, const QString &want) {
+      const QJsonArray cell = cellAt(sheet, r, c);
+      QCOMPARE(cell.at(2).toString(), QStringLiteral("s")); // a string cell, not "f" (formula)
+      QCOMPARE(cell.at(3).toString(), QStringLiteral("str"));
+      QCOMPARE(cell.at(4).toString(), want);
+    };
+    auto expectNumber = [&](int r, int c, double want) {
+      const QJsonArray cell = cellAt(sheet, r, c);
+      QCOMPARE(cell.at(2).toString(), QStringLiteral("n"));
+      QVERIFY(cell.at(3).toString() == QStringLiteral("int") ||
+              cell.at(3).toString() == QStringLiteral("float"));
+      QCOMPARE(cell.at(4).toDouble(), want);
+    };
+    expectText(1, 1, QStringLiteral("Segment"));
+    expectText(1, 4, QStringLiteral("Note"));
+    expectText(2, 1, QStringLiteral("Übernachtung – Firmen"));
+    expectNumber(2, 2, 12);
+    expectNumber(2, 3, -3.5);
+    expectText(2, 4, QStringLiteral("=1+1")); // formula injection: text, never a formula
+    expectText(3, 1, QStringLiteral("Reisegruppe 東京"));
+    expectNumber(3, 2, -7);
+    expectNumber(3, 3, 1234.56); // the plain value, not the grouped "1,234.56"
+    expectText(3, 4, QStringLiteral("@SUM(A1)"));
+    expectText(4, 1, QStringLiteral("+x"));
+    expectText(4, 2, QStringLiteral("-cmd"));
+    expectText(4, 3, QStringLiteral("n/a")); // an export value that is no number stays text
+    QVERIFY(cellAt(sheet, 4, 4).isEmpty());  // an empty cell is left out
+    int cells = 0;
+    for (const QJsonValue v : sheet.value(QStringLiteral("cells")).toArray()) {
+      QVERIFY(v.toArray().at(2).toString() != QStringLiteral("f"));
+      ++cells;
+    }
+    QCOMPARE(cells, 4 + 4 + 4 + 3);
+
+    // Widths fitted: the long segment names' column is wider than the short "Rooms" one.
+    const QJsonArray widths = sheet.value(QStringLiteral("widths")).toArray();
+    QCOMPARE(widths.size(), 4);
+    QVERIFY(widths.at(0).toDouble() > widths.at(1).toDouble());
+    QVERIFY(widths.at(0).toDouble() >= 21); // "Übernachtung – Firmen" is 21 characters
+  }
+
+  void anUnwritablePlaceGivesAReasonAndNoFile() {
+    QStandardItemModel model(1, 1);
+    QString error;
+    QVERIFY(!cbui::tableToXlsx(model, QStringLiteral("/nonexistent-dir/x.xlsx"), {}, &error));
+    QVERIFY(error.contains(QStringLiteral("/nonexistent-dir/x.xlsx")));
+  }
+
+  void sheetNamesFollowTheRules() {
+    QCOMPARE(cbui::xlsxSheetName(QString()), QStringLiteral("Sheet1"));
+    QCOMPARE(cbui::xlsxSheetName(QStringLiteral("a[b]c*d?e\\f")), QStringLiteral("a_b_c_d_e_f"));
+    QCOMPARE(cbui::xlsxSheetName(QString(40, QLatin1Char('x'))).size(), 31);
+    QCOMPARE(cbui::xlsxSheetName(QStringLiteral("'quoted'")), QStringLiteral("quoted"));
+  }
+};
+
+QTEST_MAIN(XlsxExportTest)
+#include "test_xlsxexport.moc"
