@@ -3,7 +3,11 @@
 // characters, then read back by a general-purpose reader — openpyxl, through
 // tests/reference/read_xlsx.py — which must see the same values with the right types: numbers as
 // numbers, "=1+1" as a string and no formula anywhere.
+#include "core/samplestore.h"
+#include "testsupport.h"
 #include "ui/csvexport.h"
+#include "ui/horizonmodel.h"
+#include "ui/workbenchsession.h"
 #include "ui/xlsxexport.h"
 
 #include <QDir>
@@ -15,6 +19,8 @@
 #include <QStandardItemModel>
 #include <QTemporaryDir>
 #include <QTest>
+
+#include <cmath>
 
 namespace {
 
@@ -126,6 +132,34 @@ private slots:
     QCOMPARE(widths.size(), 4);
     QVERIFY(widths.at(0).toDouble() > widths.at(1).toDouble());
     QVERIFY(widths.at(0).toDouble() >= 21); // "Übernachtung – Firmen" is 21 characters
+  }
+
+  // The Horizon table of the sample store: its figures reach the workbook as numbers (OTB, the
+  // shares as fractions), the night as its text.
+  void horizonFiguresAreNumbers() {
+    cbtest::TempDir dir;
+    cb::buildSampleStore(dir / "s.curvebench", dir / "files");
+    auto session = cbui::WorkbenchSession::open(dir / "s.curvebench");
+    cbui::HorizonModel model;
+    model.setData(cbui::computeHorizon(*session, 7, {}));
+    QCOMPARE(model.rowCount(), 7);
+    const QString file = QString::fromStdString((dir / "horizon.xlsx").string());
+    QString error;
+    QVERIFY2(cbui::tableToXlsx(model, file, QStringLiteral("horizon"), &error), qPrintable(error));
+    const QJsonObject sheet = readBack(file);
+    for (int r = 0; r < model.rowCount(); ++r) {
+      const cbui::HorizonRow &row = model.row(r);
+      const QJsonArray night = cellAt(sheet, r + 2, cbui::HorizonModel::Night + 1);
+      QCOMPARE(night.at(2).toString(), QStringLiteral("s"));
+      QCOMPARE(night.at(4).toString(), model.index(r, cbui::HorizonModel::Night).data().toString());
+      const QJsonArray otb = cellAt(sheet, r + 2, cbui::HorizonModel::Otb + 1);
+      QCOMPARE(otb.at(2).toString(), QStringLiteral("n"));
+      QCOMPARE(otb.at(4).toInt(), row.otb);
+      const QJsonArray occ = cellAt(sheet, r + 2, cbui::HorizonModel::Occupancy + 1);
+      QCOMPARE(occ.at(2).toString(), QStringLiteral("n"));
+      QVERIFY(row.occupancy);
+      QVERIFY(std::abs(occ.at(4).toDouble() - *row.occupancy) <= 0.00005); // 4 decimals
+    }
   }
 
   void anUnwritablePlaceGivesAReasonAndNoFile() {
