@@ -23,6 +23,7 @@
 #include <algorithm>
 #include <cmath>
 #include <exception>
+#include <iterator>
 #include <string>
 
 namespace cbui {
@@ -59,12 +60,12 @@ struct Column {
 
 // The table: night and event, then the figures; widths in page pixels (sum ≤ the content width).
 const Column kColumns[] = {
-    {"Night", 82, Qt::AlignLeft},        {"Event", 110, Qt::AlignLeft},
+    {"Night", 82, Qt::AlignLeft},        {"Event", 140, Qt::AlignLeft},
     {"OTB", 46, Qt::AlignRight},         {"Pickup 1 d", 72, Qt::AlignRight},
     {"Pickup 7 d", 72, Qt::AlignRight},  {"vs STLY", 62, Qt::AlignRight},
-    {"Forecast", 66, Qt::AlignRight},    {"Band (80 %)", 84, Qt::AlignRight},
-    {"Constrained", 82, Qt::AlignRight}, {"Occupancy", 76, Qt::AlignRight},
-    {"ADR", 86, Qt::AlignRight},         {"Sell-out", 62, Qt::AlignRight},
+    {"Forecast", 66, Qt::AlignRight},    {"Band (80 %)", 80, Qt::AlignRight},
+    {"Constrained", 78, Qt::AlignRight}, {"Occupancy", 72, Qt::AlignRight},
+    {"ADR", 84, Qt::AlignRight},         {"Sell-out", 62, Qt::AlignRight},
     {"Flags", 0, Qt::AlignLeft}, // the rest of the width
 };
 
@@ -242,13 +243,23 @@ bool writeMorningBriefPdf(const HorizonData &data, const QString &propertyName, 
 
   // Table of the next nights.
   const double rowH = 20;
-  double flagsW = width;
-  for (const Column &c : kColumns)
-    flagsW -= c.width;
-  auto columnWidth = [&](const Column &c) { return c.width > 0 ? c.width : flagsW; };
   const double pad = 4;
   p.setFont(font(8.5, true));
   p.setPen(kInk);
+  // Each column at least as wide as its bold heading; the flags take what is left.
+  const QFontMetricsF headFm(p.font());
+  double widths[std::size(kColumns)];
+  double flagsW = width;
+  for (std::size_t c = 0; c + 1 < std::size(kColumns); ++c) {
+    widths[c] =
+        std::max(kColumns[c].width,
+                 headFm.horizontalAdvance(QString::fromUtf8(kColumns[c].title)) + 2 * pad + 2);
+    flagsW -= widths[c];
+  }
+  widths[std::size(kColumns) - 1] = std::max(flagsW, 60.0);
+  auto columnWidth = [&](const Column &c) {
+    return widths[static_cast<std::size_t>(&c - kColumns)];
+  };
   double x = left;
   for (const Column &c : kColumns) {
     p.drawText(QRectF(x + pad, y, columnWidth(c) - 2 * pad, rowH), c.align | Qt::AlignVCenter,
