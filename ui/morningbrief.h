@@ -1,6 +1,6 @@
 // The one-page morning brief (PDF): reading date and property, the next 14 nights' table and
 // chart from the Horizon (computeHorizon), the notable pickups, likely sell-outs and pace alerts
-// of the next 60 nights, and the advisory caution. Made from the GUI (File menu) and the command
+// of the next 90 nights, and the advisory caution. Made from the GUI (File menu) and the command
 // line (`curvebench brief`); painting needs a QApplication (the chart is a widget), not a display.
 #pragma once
 
@@ -19,7 +19,7 @@ struct HorizonData;
 
 /// Nights in the brief's table and chart, and nights its lists look through.
 constexpr int kBriefNights = 14;
-constexpr int kBriefLookahead = 60;
+constexpr int kBriefLookahead = 90; // as the Horizon's default, so both show the same figures
 
 /// Rows (indices into HorizonData::rows) the brief lists beside its table, at most `maxItems`
 /// each: the largest positive pickups over 1 and 7 days (largest first, earlier night on a tie),
