@@ -133,6 +133,9 @@ bool tableToXlsx(const QAbstractItemModel &model, const QString &file, const QSt
   if (!QFile::rename(tmp.fileName(), file))
     return fail(QStringLiteral("cannot rename the written workbook into place"));
   tmp.setAutoRemove(false);
+  // A temporary file is made private (0600); an export is an ordinary file, readable as usual.
+  QFile::setPermissions(file,
+                        QFile::ReadOwner | QFile::WriteOwner | QFile::ReadGroup | QFile::ReadOther);
   return true;
 }
 

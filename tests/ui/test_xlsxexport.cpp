@@ -7,6 +7,7 @@
 #include "testsupport.h"
 #include "ui/csvexport.h"
 #include "ui/horizonmodel.h"
+#include "ui/tableexport.h"
 #include "ui/workbenchsession.h"
 #include "ui/xlsxexport.h"
 
@@ -160,6 +161,29 @@ private slots:
       QVERIFY(row.occupancy);
       QVERIFY(std::abs(occ.at(4).toDouble() - *row.occupancy) <= 0.00005); // 4 decimals
     }
+  }
+
+  // The buttons' shared writer: CSV as tableToCsv (or the text given), XLSX as tableToXlsx.
+  void writeTablePicksTheFormat() {
+    QStandardItemModel model(0, 2);
+    model.setHorizontalHeaderLabels({QStringLiteral("Segment"), QStringLiteral("Rooms")});
+    model.appendRow(
+        {text(QStringLiteral("=cmd")), figure(QStringLiteral("1,200"), QStringLiteral("1200"))});
+    QTemporaryDir tmp;
+    QString error;
+    const QString csv = tmp.filePath(QStringLiteral("t.csv"));
+    QVERIFY(cbui::writeTable(model, csv, cbui::TableFormat::Csv, {}, &error));
+    QFile f(csv);
+    QVERIFY(f.open(QIODevice::ReadOnly));
+    QCOMPARE(QString::fromUtf8(f.readAll()), QStringLiteral("Segment,Rooms\n'=cmd,1200\n"));
+    const QString xlsx = tmp.filePath(QStringLiteral("t.xlsx"));
+    QVERIFY(
+        cbui::writeTable(model, xlsx, cbui::TableFormat::Xlsx, QStringLiteral("segments"), &error));
+    QVERIFY(QFile::permissions(xlsx).testFlag(QFile::ReadOther)); // not left private
+    const QJsonObject sheet = readBack(xlsx);
+    QCOMPARE(sheet.value(QStringLiteral("name")).toString(), QStringLiteral("segments"));
+    QCOMPARE(cellAt(sheet, 2, 1).at(4).toString(), QStringLiteral("=cmd")); // text, no apostrophe
+    QCOMPARE(cellAt(sheet, 2, 2).at(4).toInt(), 1200);
   }
 
   void anUnwritablePlaceGivesAReasonAndNoFile() {
