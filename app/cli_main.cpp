@@ -23,6 +23,7 @@ int main(int argc, char **argv) {
   cbcli::addSettingsVerbs(app, verbs);
   cbcli::addGroupVerbs(app, verbs);
   cbcli::addDisplaceVerbs(app, verbs);
+  cbcli::addBriefVerbs(app, verbs);
 
   try {
     app.parse(argc, argv);

@@ -32,5 +32,6 @@ void addOverbookVerbs(CLI::App &app, VerbList &verbs);    // overbook (cli_overb
 void addSettingsVerbs(CLI::App &app, VerbList &verbs);    // settings (cli_settings.cpp)
 void addGroupVerbs(CLI::App &app, VerbList &verbs);       // import-blocks, groups (cli_groups.cpp)
 void addDisplaceVerbs(CLI::App &app, VerbList &verbs);    // displace (cli_displace.cpp)
+void addBriefVerbs(CLI::App &app, VerbList &verbs);       // brief (cli_brief.cpp; GUI build)
 
 } // namespace cbcli

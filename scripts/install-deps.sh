@@ -8,7 +8,8 @@ packages=(
   qt6-base-dev libqcustomplot-dev libeigen3-dev libsqlite3-dev
   libgtest-dev libgmock-dev libcli11-dev libhowardhinnant-date-dev nlohmann-json3-dev
   libfmt-dev libboost-math-dev libboost-dev libssl-dev clang-format libbenchmark-dev
-  libnlopt-cxx-dev
+  libnlopt-cxx-dev libxlsxwriter-dev
+  python3 python3-openpyxl poppler-utils
 )
 if [[ "${1:-}" == "--with-display-tools" ]]; then
   packages+=(xvfb xauth imagemagick)

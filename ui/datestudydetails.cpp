@@ -42,8 +42,9 @@ QLabel *figure() {
   return l;
 }
 
-// A table with its CSV button under it, on one tab page.
-QWidget *tablePage(QTableWidget *table, QWidget *above, QWidget *below, QPushButton *csv) {
+// A table with its CSV and XLSX buttons under it, on one tab page.
+QWidget *tablePage(QTableWidget *table, QWidget *above, QWidget *below, QPushButton *csv,
+                   QPushButton *xlsx) {
   auto *page = new QWidget;
   auto *lay = new QVBoxLayout(page);
   if (above)
@@ -54,6 +55,7 @@ QWidget *tablePage(QTableWidget *table, QWidget *above, QWidget *below, QPushBut
   auto *row = new QHBoxLayout;
   row->addStretch(1);
   row->addWidget(csv);
+  row->addWidget(xlsx);
   lay->addLayout(row);
   return page;
 }
@@ -124,7 +126,9 @@ DateStudyDetails::DateStudyDetails(QWidget *parent) : QWidget(parent) {
   notesLay->addWidget(segNotes_);
   notesLay->addWidget(caution);
   auto *segCsv = new QPushButton(tr("Table CSV…"));
-  tabs_->addTab(tablePage(segTable_, nullptr, notes, segCsv), tr("Segments && protection"));
+  auto *segXlsx = new QPushButton(tr("XLSX…"));
+  tabs_->addTab(tablePage(segTable_, nullptr, notes, segCsv, segXlsx),
+                tr("Segments && protection"));
 
   // Expert override.
   auto *ovPage = new QWidget;
@@ -153,7 +157,8 @@ DateStudyDetails::DateStudyDetails(QWidget *parent) : QWidget(parent) {
                                         tr("Rooms"), tr("Arrival"), tr("Nights"), tr("Rate")});
   resTable_->verticalHeader()->hide();
   auto *resCsv = new QPushButton(tr("Table CSV…"));
-  tabs_->addTab(tablePage(resTable_, resSummary_, nullptr, resCsv), tr("Reservations"));
+  auto *resXlsx = new QPushButton(tr("XLSX…"));
+  tabs_->addTab(tablePage(resTable_, resSummary_, nullptr, resCsv, resXlsx), tr("Reservations"));
   col->addWidget(tabs_, 1);
 
   drill_ = new QPushButton(tr("Reservations behind OTB"));
@@ -169,6 +174,10 @@ DateStudyDetails::DateStudyDetails(QWidget *parent) : QWidget(parent) {
           [this] { emit exportRequested(segTable_, QStringLiteral("segments.csv")); });
   connect(resCsv, &QPushButton::clicked, this,
           [this] { emit exportRequested(resTable_, QStringLiteral("reservations.csv")); });
+  connect(segXlsx, &QPushButton::clicked, this,
+          [this] { emit exportRequested(segTable_, QStringLiteral("segments.xlsx")); });
+  connect(resXlsx, &QPushButton::clicked, this,
+          [this] { emit exportRequested(resTable_, QStringLiteral("reservations.xlsx")); });
 }
 
 void DateStudyDetails::setForecast(const QString &value, const QString &accuracy,

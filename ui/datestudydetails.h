@@ -73,7 +73,8 @@ signals:
   /// "Reservations behind OTB" pressed.
   void drillRequested();
   void tabShown(int tab);
-  /// A table's "CSV…" button: the caller asks for a file name and writes it.
+  /// A table's "CSV…" or "XLSX…" button (the format from the suggested name's extension): the
+  /// caller asks for a file name and writes it.
   void exportRequested(QTableWidget *table, const QString &suggestedName);
 
 private:

@@ -7,12 +7,14 @@
 #include "ui/datestudydetails.h"
 #include "ui/datestudyjobs.h"
 #include "ui/datestudymodel.h"
+#include "ui/tableexport.h"
 #include "ui/workbenchsession.h"
 
 #include <QComboBox>
 #include <QDate>
 #include <QElapsedTimer>
 #include <QFileDialog>
+#include <QFileInfo>
 #include <QHBoxLayout>
 #include <QLabel>
 #include <QLocale>
@@ -333,14 +335,12 @@ struct DateStudyPanel::Impl {
   }
 
   void exportTable(QTableWidget *table, const QString &name) {
-    const QString f =
-        QFileDialog::getSaveFileName(self, tr("Save the table"), name, tr("CSV files (*.csv)"));
-    if (f.isEmpty())
-      return;
-    QString error;
-    status->setText(writeTextFile(f, tableToCsv(*table->model()), &error)
-                        ? tr("Saved %1").arg(f)
-                        : tr("Not saved: %1").arg(error));
+    const QFileInfo suggested(name);
+    const QString done = saveTableAs(
+        self, *table->model(), suggested.completeBaseName(),
+        suggested.suffix() == QStringLiteral("xlsx") ? TableFormat::Xlsx : TableFormat::Csv);
+    if (!done.isEmpty())
+      status->setText(done);
   }
 };
 

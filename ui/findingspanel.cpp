@@ -2,6 +2,7 @@
 
 #include "core/finding.h"
 #include "ui/csvexport.h"
+#include "ui/tableexport.h"
 
 #include <QFile>
 #include <QFileDialog>
@@ -114,7 +115,10 @@ FindingsPanel::FindingsPanel(QWidget *parent) : QWidget(parent) {
   auto *top = new QHBoxLayout;
   auto *csv = new QPushButton(tr("Findings CSV…"));
   top->addWidget(heading_, 1);
+  auto *xlsx = new QPushButton(tr("XLSX…"));
+  xlsx->setToolTip(tr("Save the findings as an Excel workbook"));
   top->addWidget(csv);
+  top->addWidget(xlsx);
   lay->addLayout(top);
   lay->addWidget(split, 1);
   connect(csv, &QPushButton::clicked, this, [this] {
@@ -123,6 +127,12 @@ FindingsPanel::FindingsPanel(QWidget *parent) : QWidget(parent) {
     QString error;
     if (!f.isEmpty() && !writeTextFile(f, tableToCsv(*table_->model()), &error))
       heading_->setText(tr("Not saved: %1").arg(error));
+  });
+  connect(xlsx, &QPushButton::clicked, this, [this] {
+    const QString done =
+        saveTableAs(this, *table_->model(), QStringLiteral("findings"), TableFormat::Xlsx);
+    if (done.startsWith(QStringLiteral("Not saved")))
+      heading_->setText(done);
   });
 
   connect(table_, &QTableWidget::currentCellChanged, this,

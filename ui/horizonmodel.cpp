@@ -216,6 +216,27 @@ QVariant HorizonModel::sortValue(const HorizonRow &r, int column) const {
   }
 }
 
+QVariant HorizonModel::exportValue(const HorizonRow &r, int column) const {
+  // Plain numbers for a spreadsheet export (tableToXlsx writes them as numbers; shares as
+  // fractions); the other columns export their text.
+  auto opt = [](const auto &v, int decimals) {
+    return v ? QVariant(QString::number(static_cast<double>(*v), 'f', decimals)) : QVariant();
+  };
+  switch (column) {
+  case Otb: return r.otb;
+  case Pickup1: return r.pickup1;
+  case Pickup7: return r.pickup7;
+  case Stly: return opt(r.stlyOtb, 0);
+  case VsStly: return r.stlyOtb ? QVariant(r.otb - *r.stlyOtb) : QVariant();
+  case Forecast: return QString::number(r.forecast, 'f', 2);
+  case Constrained: return opt(r.constrained, 2);
+  case Occupancy: return opt(r.occupancy, 4);
+  case Adr: return opt(r.adr, 2);
+  case Sellout: return opt(r.pSellout, 4);
+  default: return {};
+  }
+}
+
 QVariant HorizonModel::data(const QModelIndex &index, int role) const {
   if (!index.isValid() || index.row() >= rowCount())
     return {};
@@ -226,6 +247,7 @@ QVariant HorizonModel::data(const QModelIndex &index, int role) const {
   switch (role) {
   case Qt::DisplayRole: return display(r, c);
   case kSortRole: return sortValue(r, c);
+  case kCsvValueRole: return exportValue(r, c);
   case kNightRole: return r.night;
   case Qt::TextAlignmentRole:
     return c == Night || c == Season || c == Flags

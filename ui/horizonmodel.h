@@ -89,6 +89,7 @@ public:
 private:
   QVariant display(const HorizonRow &r, int column) const;
   QVariant sortValue(const HorizonRow &r, int column) const;
+  QVariant exportValue(const HorizonRow &r, int column) const;
   HorizonData data_;
 };
 

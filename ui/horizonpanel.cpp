@@ -3,10 +3,10 @@
 #include "core/advice.h"
 #include "ui/horizonchart.h"
 #include "ui/horizonmodel.h"
+#include "ui/tableexport.h"
 #include "ui/workbenchsession.h"
 
 #include <QComboBox>
-#include <QFile>
 #include <QFileDialog>
 #include <QFontMetrics>
 #include <QFutureWatcher>
@@ -102,19 +102,22 @@ HorizonPanel::HorizonPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   controls->addWidget(d_->status, 1);
   auto *exportTable = new QPushButton(QStringLiteral("Table CSV…"));
   auto *exportChart = new QPushButton(QStringLiteral("Chart PNG/PDF…"));
+  auto *exportXlsx = new QPushButton(QStringLiteral("XLSX…"));
+  exportXlsx->setToolTip(QStringLiteral("Save the table as an Excel workbook"));
   controls->addWidget(exportTable);
+  controls->addWidget(exportXlsx);
   controls->addWidget(exportChart);
   connect(exportTable, &QPushButton::clicked, this, [this] {
-    const QString file = QFileDialog::getSaveFileName(
-        this, QStringLiteral("Save the Horizon table"), QStringLiteral("horizon.csv"),
-        QStringLiteral("CSV files (*.csv)"));
-    if (file.isEmpty())
-      return;
-    QFile f(file);
-    const bool ok = f.open(QIODevice::WriteOnly | QIODevice::Truncate) &&
-                    f.write(d_->model->toCsv().toUtf8()) >= 0;
-    d_->status->setText(ok ? QStringLiteral("Saved %1").arg(file)
-                           : QStringLiteral("Could not write %1").arg(file));
+    const QString done = saveTableAs(this, *d_->model, QStringLiteral("horizon"), TableFormat::Csv,
+                                     d_->model->toCsv());
+    if (!done.isEmpty())
+      d_->status->setText(done);
+  });
+  connect(exportXlsx, &QPushButton::clicked, this, [this] {
+    const QString done =
+        saveTableAs(this, *d_->model, QStringLiteral("horizon"), TableFormat::Xlsx);
+    if (!done.isEmpty())
+      d_->status->setText(done);
   });
   connect(exportChart, &QPushButton::clicked, this, [this] {
     const QString file = QFileDialog::getSaveFileName(

@@ -8,6 +8,7 @@
 #include "ui/datestudypanel.h"
 #include "ui/findingspanel.h"
 #include "ui/horizonpanel.h"
+#include "ui/morningbrief.h"
 #include "ui/propertysummarypanel.h"
 #include "ui/segmentcomparepanel.h"
 #include "ui/workbenchsession.h"
@@ -271,6 +272,13 @@ void MainWindow::buildMenus() {
                                                 QString(), QStringLiteral("CSV files (*.csv)"));
     if (!path.isEmpty())
       importCsv(std::filesystem::path(path.toStdString()));
+  });
+  QAction *brief = file->addAction(QStringLiteral("Morning &brief (PDF)…"));
+  connect(brief, &QAction::triggered, this, [this] {
+    const QString done =
+        session_ ? saveMorningBriefAs(this, *session_) : QStringLiteral("Open a store first");
+    if (!done.isEmpty())
+      statusBar()->showMessage(done);
   });
   recentMenu_ = file->addMenu(QStringLiteral("Open &recent"));
   rebuildRecentMenu();
