@@ -30,9 +30,10 @@ int main(int argc, char **argv) {
                           QStringLiteral("Save a PNG of the window once loaded, then quit"),
                           QStringLiteral("FILE"));
   parser.addOption(shot);
-  QCommandLineOption screen(QStringLiteral("screen"),
-                            QStringLiteral("Screen to show: horizon, date-study or property"),
-                            QStringLiteral("NAME"));
+  QCommandLineOption screen(
+      QStringLiteral("screen"),
+      QStringLiteral("Screen to show: horizon, date-study, accuracy or property"),
+      QStringLiteral("NAME"));
   parser.addOption(screen);
   QCommandLineOption size(QStringLiteral("size"),
                           QStringLiteral("Window size, e.g. 1366x768 (for screenshots)"),
@@ -49,6 +50,7 @@ int main(int argc, char **argv) {
   if (parser.isSet(screen)) {
     const QString name = parser.value(screen);
     window.showScreen(name == QLatin1String("date-study") ? cbui::MainWindow::DateStudyScreen
+                      : name == QLatin1String("accuracy") ? cbui::MainWindow::AccuracyScreen
                       : name == QLatin1String("property") ? cbui::MainWindow::PropertyScreen
                                                           : cbui::MainWindow::HorizonScreen);
   }

@@ -5,6 +5,7 @@
 #include "core/samplestore.h"
 #include "core/store.h"
 #include "core/textformat.h"
+#include "ui/accuracypanel.h"
 #include "ui/datestudypanel.h"
 #include "ui/findingspanel.h"
 #include "ui/horizonpanel.h"
@@ -117,10 +118,11 @@ ImportOutcome runImport(const std::filesystem::path &store, const std::filesyste
 
 MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
-      summary_(new PropertySummaryPanel), dateStudy_(new DateStudyPanel), asOfEdit_(new QDateEdit),
-      asOfNote_(new QLabel), progress_(new QProgressBar),
-      findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new FindingsPanel),
-      findingsButton_(new QToolButton), cancelImport_(new QToolButton) {
+      summary_(new PropertySummaryPanel), dateStudy_(new DateStudyPanel),
+      accuracy_(new AccuracyPanel), asOfEdit_(new QDateEdit), asOfNote_(new QLabel),
+      progress_(new QProgressBar), findingsDock_(new QDockWidget(QStringLiteral("Findings"))),
+      findings_(new FindingsPanel), findingsButton_(new QToolButton),
+      cancelImport_(new QToolButton) {
   setWindowTitle(QStringLiteral("Curvebench"));
   setAcceptDrops(true);
 
@@ -146,10 +148,16 @@ MainWindow::MainWindow(QWidget *parent)
 
   tabs_->addTab(horizon_, QStringLiteral("Horizon"));
   tabs_->addTab(dateStudy_, QStringLiteral("Date Study"));
+  tabs_->addTab(accuracy_, QStringLiteral("Accuracy"));
   tabs_->addTab(summary_, QStringLiteral("Property"));
   tabs_->setTabToolTip(0, QStringLiteral("The next nights at a glance (Ctrl+1)"));
   tabs_->setTabToolTip(1, QStringLiteral("One night in depth (Ctrl+2)"));
-  tabs_->setTabToolTip(2, QStringLiteral("The property and its data (Ctrl+3)"));
+  tabs_->setTabToolTip(
+      AccuracyScreen,
+      QStringLiteral("How well each forecast method did here (Ctrl+%1)").arg(AccuracyScreen + 1));
+  tabs_->setTabToolTip(
+      PropertyScreen,
+      QStringLiteral("The property and its data (Ctrl+%1)").arg(PropertyScreen + 1));
   setCentralWidget(tabs_);
 
   findingsDock_->setObjectName(QStringLiteral("findingsDock"));
@@ -183,7 +191,7 @@ MainWindow::MainWindow(QWidget *parent)
     showScreen(DateStudyScreen);
   });
 
-  for (int i = 0; i < 3; ++i) {
+  for (int i = 0; i < tabs_->count(); ++i) {
     auto *sc = new QShortcut(QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_1 + i)), this);
     connect(sc, &QShortcut::activated, this, [this, i] { tabs_->setCurrentIndex(i); });
   }
@@ -220,6 +228,7 @@ MainWindow::~MainWindow() {
   // Date Study's background jobs read the session: stop them while it is still alive (the
   // panels, children of the window, are destroyed after its members).
   dateStudy_->setSession(nullptr);
+  accuracy_->setSession(nullptr);
   horizon_->setSession(nullptr);
 }
 
@@ -250,10 +259,9 @@ void MainWindow::buildMenus() {
   connect(quit, &QAction::triggered, this, &QWidget::close);
 
   QMenu *view = menuBar()->addMenu(QStringLiteral("&View"));
-  const char *names[] = {"&Horizon\tCtrl+1", "&Date Study\tCtrl+2", "&Property\tCtrl+3"};
-  for (int i = 0; i < 3; ++i)
-    connect(view->addAction(QString::fromUtf8(names[i])), &QAction::triggered, this,
-            [this, i] { tabs_->setCurrentIndex(i); });
+  for (int i = 0; i < tabs_->count(); ++i)
+    connect(view->addAction(QStringLiteral("%1\tCtrl+%2").arg(tabs_->tabText(i)).arg(i + 1)),
+            &QAction::triggered, this, [this, i] { tabs_->setCurrentIndex(i); });
   view->addAction(findingsDock_->toggleViewAction());
 }
 
@@ -423,6 +431,7 @@ void MainWindow::importCsv(const std::filesystem::path &file) {
 
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   dateStudy_->setSession(nullptr); // its jobs must end before the old session goes
+  accuracy_->setSession(nullptr);
   session_ = std::move(session);
   healthChecked_ = false;
   summary_->showSession(*session_);
@@ -451,6 +460,7 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
                    toQDate(session_->readingDate()).toString(kDateFormat)));
   horizon_->setSession(session_.get());
   dateStudy_->setSession(session_.get());
+  accuracy_->setSession(session_.get());
   showNight(session_->defaultNight());
   emit sessionLoaded();
 }
@@ -460,10 +470,12 @@ bool MainWindow::setReadingDate(cb::Date date) {
     return false;
   // Date Study's background jobs read the session: let them end before it changes.
   dateStudy_->setSession(nullptr);
+  accuracy_->setSession(nullptr);
   try {
     session_->setReadingDate(date);
   } catch (const std::invalid_argument &e) {
     dateStudy_->setSession(session_.get());
+    accuracy_->setSession(session_.get());
     if (night_.isValid())
       dateStudy_->setNight(fromQDate(night_));
     statusBar()->showMessage(
@@ -480,6 +492,7 @@ bool MainWindow::setReadingDate(cb::Date date) {
                                .arg(toQDate(date).toString(kDateFormat)));
   horizon_->setSession(session_.get());
   dateStudy_->setSession(session_.get());
+  accuracy_->setSession(session_.get());
   if (night_.isValid())
     showNight(fromQDate(night_));
   return true;

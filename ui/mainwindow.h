@@ -32,6 +32,7 @@ class DateStudyPanel;
 class PropertySummaryPanel;
 class HorizonPanel;
 class FindingsPanel;
+class AccuracyPanel;
 
 /// Cancel flag and progress of a background import (shared with the worker).
 struct ImportControl {
@@ -42,7 +43,7 @@ struct ImportControl {
 class MainWindow : public QMainWindow {
   Q_OBJECT
 public:
-  enum Screen { HorizonScreen = 0, DateStudyScreen = 1, PropertyScreen = 2 };
+  enum Screen { HorizonScreen = 0, DateStudyScreen = 1, AccuracyScreen = 2, PropertyScreen = 3 };
 
   explicit MainWindow(QWidget *parent = nullptr);
   ~MainWindow() override;
@@ -67,6 +68,7 @@ public:
   PropertySummaryPanel *summaryPanel() const { return summary_; }
   HorizonPanel *horizonPanel() const { return horizon_; }
   FindingsPanel *findingsPanel() const { return findings_; }
+  AccuracyPanel *accuracyPanel() const { return accuracy_; }
   /// Cancels the running import (as its Cancel button does); nothing is written.
   void cancelImport();
   /// The night Date Study shows.
@@ -96,6 +98,7 @@ private:
   HorizonPanel *horizon_;
   PropertySummaryPanel *summary_;
   DateStudyPanel *dateStudy_;
+  AccuracyPanel *accuracy_;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;
   QDate night_; ///< the night Date Study shows
