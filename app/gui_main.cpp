@@ -32,7 +32,7 @@ int main(int argc, char **argv) {
   parser.addOption(shot);
   QCommandLineOption screen(QStringLiteral("screen"),
                             QStringLiteral("Screen to show: horizon, date-study, segment-compare, "
-                                           "year-map or property"),
+                                           "year-map, accuracy or property"),
                             QStringLiteral("NAME"));
   parser.addOption(screen);
   QCommandLineOption size(QStringLiteral("size"),
@@ -53,6 +53,7 @@ int main(int argc, char **argv) {
                       : name == QLatin1String("segment-compare")
                           ? cbui::MainWindow::SegmentCompareScreen
                       : name == QLatin1String("year-map") ? cbui::MainWindow::YearMapScreen
+                      : name == QLatin1String("accuracy") ? cbui::MainWindow::AccuracyScreen
                       : name == QLatin1String("property") ? cbui::MainWindow::PropertyScreen
                                                           : cbui::MainWindow::HorizonScreen);
   }

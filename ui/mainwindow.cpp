@@ -5,6 +5,7 @@
 #include "core/samplestore.h"
 #include "core/store.h"
 #include "core/textformat.h"
+#include "ui/accuracypanel.h"
 #include "ui/datestudypanel.h"
 #include "ui/findingspanel.h"
 #include "ui/horizonpanel.h"
@@ -121,8 +122,8 @@ ImportOutcome runImport(const std::filesystem::path &store, const std::filesyste
 MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
       summary_(new PropertySummaryPanel), compare_(new SegmentComparePanel),
-      yearMap_(new YearMapPanel), dateStudy_(new DateStudyPanel), asOfEdit_(new QDateEdit),
-      asOfNote_(new QLabel), progress_(new QProgressBar),
+      yearMap_(new YearMapPanel), dateStudy_(new DateStudyPanel), accuracy_(new AccuracyPanel),
+      asOfEdit_(new QDateEdit), asOfNote_(new QLabel), progress_(new QProgressBar),
       findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new FindingsPanel),
       findingsButton_(new QToolButton), cancelImport_(new QToolButton) {
   setWindowTitle(QStringLiteral("Curvebench"));
@@ -152,14 +153,18 @@ MainWindow::MainWindow(QWidget *parent)
   tabs_->addTab(dateStudy_, QStringLiteral("Date Study"));
   tabs_->addTab(compare_, QStringLiteral("Segment Compare"));
   tabs_->addTab(yearMap_, QStringLiteral("Year Map"));
+  tabs_->addTab(accuracy_, QStringLiteral("Accuracy"));
   tabs_->addTab(summary_, QStringLiteral("Property"));
-  tabs_->setTabToolTip(0, QStringLiteral("The next nights at a glance (Ctrl+1)"));
-  tabs_->setTabToolTip(1, QStringLiteral("One night in depth (Ctrl+2)"));
-  tabs_->setTabToolTip(2, QStringLiteral("Segments side by side: curves, booking window, rate by "
-                                         "lead, this year vs last year (Ctrl+3)"));
-  tabs_->setTabToolTip(3, QStringLiteral("A whole year of nights by season class or demand "
-                                         "(Ctrl+4)"));
-  tabs_->setTabToolTip(4, QStringLiteral("The property and its data (Ctrl+5)"));
+  const char *tips[] = {
+      "The next nights at a glance",
+      "One night in depth",
+      "Segments side by side: curves, booking window, rate by lead, this year vs last year",
+      "A whole year of nights by season class or demand",
+      "How well each forecast method did on this property",
+      "The property and its data"};
+  for (int i = 0; i < tabs_->count(); ++i)
+    tabs_->setTabToolTip(i,
+                         QStringLiteral("%1 (Ctrl+%2)").arg(QString::fromUtf8(tips[i])).arg(i + 1));
   setCentralWidget(tabs_);
 
   findingsDock_->setObjectName(QStringLiteral("findingsDock"));
@@ -193,7 +198,7 @@ MainWindow::MainWindow(QWidget *parent)
     showScreen(DateStudyScreen);
   });
 
-  for (int i = 0; i < 5; ++i) {
+  for (int i = 0; i < tabs_->count(); ++i) {
     auto *sc = new QShortcut(QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_1 + i)), this);
     connect(sc, &QShortcut::activated, this, [this, i] { tabs_->setCurrentIndex(i); });
   }
@@ -236,6 +241,7 @@ MainWindow::~MainWindow() {
   // Date Study's background jobs read the session: stop them while it is still alive (the
   // panels, children of the window, are destroyed after its members).
   dateStudy_->setSession(nullptr);
+  accuracy_->setSession(nullptr);
   horizon_->setSession(nullptr);
   compare_->setSession(nullptr);
   yearMap_->setSession(nullptr);
@@ -288,11 +294,9 @@ void MainWindow::buildMenus() {
   connect(quit, &QAction::triggered, this, &QWidget::close);
 
   QMenu *view = menuBar()->addMenu(QStringLiteral("&View"));
-  const char *names[] = {"&Horizon\tCtrl+1", "&Date Study\tCtrl+2", "&Segment Compare\tCtrl+3",
-                         "&Year Map\tCtrl+4", "&Property\tCtrl+5"};
-  for (int i = 0; i < 5; ++i)
-    connect(view->addAction(QString::fromUtf8(names[i])), &QAction::triggered, this,
-            [this, i] { tabs_->setCurrentIndex(i); });
+  for (int i = 0; i < tabs_->count(); ++i)
+    connect(view->addAction(QStringLiteral("%1\tCtrl+%2").arg(tabs_->tabText(i)).arg(i + 1)),
+            &QAction::triggered, this, [this, i] { tabs_->setCurrentIndex(i); });
   view->addAction(findingsDock_->toggleViewAction());
 }
 
@@ -462,6 +466,7 @@ void MainWindow::importCsv(const std::filesystem::path &file) {
 
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   dateStudy_->setSession(nullptr); // its jobs must end before the old session goes
+  accuracy_->setSession(nullptr);
   session_ = std::move(session);
   healthChecked_ = false;
   summary_->showSession(*session_);
@@ -494,6 +499,7 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   yearMap_->setSession(nullptr);
   compareStale_ = yearMapStale_ = true;
   refreshLazyScreens();
+  accuracy_->setSession(session_.get());
   showNight(session_->defaultNight());
   emit sessionLoaded();
 }
@@ -503,10 +509,12 @@ bool MainWindow::setReadingDate(cb::Date date) {
     return false;
   // Date Study's background jobs read the session: let them end before it changes.
   dateStudy_->setSession(nullptr);
+  accuracy_->setSession(nullptr);
   try {
     session_->setReadingDate(date);
   } catch (const std::invalid_argument &e) {
     dateStudy_->setSession(session_.get());
+    accuracy_->setSession(session_.get());
     if (night_.isValid())
       dateStudy_->setNight(fromQDate(night_));
     statusBar()->showMessage(
@@ -525,6 +533,7 @@ bool MainWindow::setReadingDate(cb::Date date) {
   dateStudy_->setSession(session_.get());
   compareStale_ = yearMapStale_ = true;
   refreshLazyScreens();
+  accuracy_->setSession(session_.get());
   if (night_.isValid())
     showNight(fromQDate(night_));
   return true;

@@ -35,6 +35,7 @@ class HorizonPanel;
 class SegmentComparePanel;
 class YearMapPanel;
 class FindingsPanel;
+class AccuracyPanel;
 
 /// Cancel flag and progress of a background import (shared with the worker).
 struct ImportControl {
@@ -50,7 +51,8 @@ public:
     DateStudyScreen = 1,
     SegmentCompareScreen = 2,
     YearMapScreen = 3,
-    PropertyScreen = 4
+    AccuracyScreen = 4,
+    PropertyScreen = 5
   };
 
   explicit MainWindow(QWidget *parent = nullptr);
@@ -78,6 +80,7 @@ public:
   SegmentComparePanel *segmentComparePanel() const { return compare_; }
   YearMapPanel *yearMapPanel() const { return yearMap_; }
   FindingsPanel *findingsPanel() const { return findings_; }
+  AccuracyPanel *accuracyPanel() const { return accuracy_; }
   /// Cancels the running import (as its Cancel button does); nothing is written.
   void cancelImport();
   /// The night Date Study shows.
@@ -113,6 +116,7 @@ private:
   YearMapPanel *yearMap_;
   bool compareStale_ = true, yearMapStale_ = true;
   DateStudyPanel *dateStudy_;
+  AccuracyPanel *accuracy_;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;
   QDate night_; ///< the night Date Study shows
