@@ -14,7 +14,9 @@ AccuracyChart::AccuracyChart(QWidget *parent) : QWidget(parent), plot_(new QCust
   plot_->xAxis->setLabel(QStringLiteral("Days before arrival (lead)"));
   plot_->legend->setVisible(true);
   plot_->legend->setFont(QFont(font().family(), 8));
-  plot_->axisRect()->insetLayout()->setInsetAlignment(0, Qt::AlignTop | Qt::AlignLeft);
+  // The legend beside the plot, not over it: the short leads at the left matter most.
+  plot_->plotLayout()->addElement(0, 1, plot_->legend);
+  plot_->plotLayout()->setColumnStretchFactor(1, 0.001);
   plot_->setInteractions(QCP::iRangeDrag | QCP::iRangeZoom);
   plot_->setMinimumHeight(220);
 }

@@ -4,6 +4,7 @@
 #include "ui/accuracychart.h"
 #include "ui/accuracymodel.h"
 #include "ui/csvexport.h"
+#include "ui/tableexport.h"
 
 #include <QComboBox>
 #include <QFileDialog>
@@ -184,6 +185,7 @@ AccuracyPanel::AccuracyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   d_->progress = new QProgressBar;
   d_->progress->setMaximumWidth(180);
   auto *csv = new QPushButton(QStringLiteral("Table CSV…"));
+  auto *xlsx = new QPushButton(QStringLiteral("XLSX…"));
   auto *img = new QPushButton(QStringLiteral("Chart PNG/PDF…"));
   bar->addWidget(new QLabel(QStringLiteral("Scored")));
   bar->addWidget(d_->weeks);
@@ -196,6 +198,7 @@ AccuracyPanel::AccuracyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   bar->addWidget(new QLabel(QStringLiteral("Chart")));
   bar->addWidget(d_->measure);
   bar->addWidget(csv);
+  bar->addWidget(xlsx);
   bar->addWidget(img);
   outer->addLayout(bar);
   d_->status = new QLabel(QStringLiteral("Open a store, then run the backtest."));
@@ -267,14 +270,13 @@ AccuracyPanel::AccuracyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   connect(d_->runButton, &QPushButton::clicked, this, &AccuracyPanel::run);
   connect(d_->cancelButton, &QPushButton::clicked, this, &AccuracyPanel::cancel);
   connect(d_->measure, &QComboBox::currentIndexChanged, this, [this] { d_->drawChart(); });
-  connect(csv, &QPushButton::clicked, this, [this] {
-    const QString f = QFileDialog::getSaveFileName(this, QStringLiteral("Save the table"),
-                                                   QStringLiteral("accuracy.csv"),
-                                                   QStringLiteral("CSV files (*.csv)"));
-    QString error;
-    if (!f.isEmpty() && !writeTextFile(f, tableToCsv(*d_->table->model()), &error))
-      d_->status->setText(QStringLiteral("Not saved: %1").arg(error));
-  });
+  auto save = [this](TableFormat format) {
+    const QString said = saveTableAs(this, *d_->table->model(), QStringLiteral("accuracy"), format);
+    if (!said.isEmpty())
+      d_->status->setText(said);
+  };
+  connect(csv, &QPushButton::clicked, this, [save] { save(TableFormat::Csv); });
+  connect(xlsx, &QPushButton::clicked, this, [save] { save(TableFormat::Xlsx); });
   connect(img, &QPushButton::clicked, this, [this] {
     const QString f = QFileDialog::getSaveFileName(this, QStringLiteral("Export chart"),
                                                    QStringLiteral("accuracy.png"),
