@@ -60,4 +60,44 @@ cb::CensorSources censorSources(const cb::Store &store) {
   return {store.closures(), store.denials()};
 }
 
+bool readTableHeader(cb::CsvReader &reader, cb::CsvRecord &rec, const std::string &path,
+                     const std::vector<std::string> &names, std::size_t required,
+                     const std::string &needs, std::vector<int> &col, cb::Findings &findings) {
+  if (!reader.next(rec)) {
+    findings.push_back(reader.fatal()
+                           ? *reader.fatal()
+                           : cb::Finding{cb::Severity::Error, path, 1, 0, "the file is empty"});
+    return false;
+  }
+  col.assign(names.size(), 0);
+  for (std::size_t i = 0; i < rec.size(); ++i)
+    for (std::size_t k = 0; k < names.size(); ++k)
+      if (rec[i] == names[k])
+        col[k] = static_cast<int>(i) + 1;
+  bool ok = true;
+  for (std::size_t k = 0; k < required; ++k)
+    if (col[k] == 0) {
+      findings.push_back(
+          {cb::Severity::Error, path, rec.line, 0,
+           fmt::format("missing column \"{}\" (the header needs {})", names[k], needs)});
+      ok = false;
+    }
+  return ok;
+}
+
+bool tableRecordOk(const cb::CsvReader &reader, const cb::CsvRecord &rec, const std::string &path,
+                   cb::Findings &findings) {
+  if (!rec.problem.empty()) {
+    findings.push_back({cb::Severity::Error, path, rec.line, rec.problemField, rec.problem});
+    return false;
+  }
+  if (rec.size() != reader.headerSize()) {
+    findings.push_back(
+        {cb::Severity::Error, path, rec.line, 0,
+         fmt::format("{} fields where the header has {}", rec.size(), reader.headerSize())});
+    return false;
+  }
+  return true;
+}
+
 } // namespace cbcli

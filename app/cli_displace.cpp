@@ -35,37 +35,14 @@ std::vector<cb::OfferNight> readOffer(const std::string &path, cb::Findings &fin
   cb::CsvReader reader(in, path);
   cb::CsvRecord rec;
   std::vector<cb::OfferNight> offer;
-  if (!reader.next(rec)) {
-    findings.push_back(reader.fatal()
-                           ? *reader.fatal()
-                           : cb::Finding{cb::Severity::Error, path, 1, 0, "the file is empty"});
-    return offer;
-  }
-  int col[5] = {0, 0, 0, 0, 0};
-  for (std::size_t i = 0; i < rec.size(); ++i)
-    for (int k = 0; k < 5; ++k)
-      if (rec[i] == kOfferColumns[k])
-        col[k] = static_cast<int>(i) + 1;
-  for (int k = 0; k < 3; ++k)
-    if (col[k] == 0)
-      findings.push_back({cb::Severity::Error, path, rec.line, 0,
-                          fmt::format("missing column \"{}\" (the header needs night,rooms,rate "
-                                      "and may add other_revenue,cost)",
-                                      kOfferColumns[k])});
-  if (!findings.empty())
+  std::vector<int> col;
+  if (!readTableHeader(reader, rec, path, {std::begin(kOfferColumns), std::end(kOfferColumns)}, 3,
+                       "night,rooms,rate and may add other_revenue,cost", col, findings))
     return offer;
   std::map<cb::Date, std::int64_t> seen;
   while (reader.next(rec)) {
-    if (!rec.problem.empty()) {
-      findings.push_back({cb::Severity::Error, path, rec.line, rec.problemField, rec.problem});
+    if (!tableRecordOk(reader, rec, path, findings))
       continue;
-    }
-    if (rec.size() != reader.headerSize()) {
-      findings.push_back(
-          {cb::Severity::Error, path, rec.line, 0,
-           fmt::format("{} fields where the header has {}", rec.size(), reader.headerSize())});
-      continue;
-    }
     const std::size_t before = findings.size();
     auto number = [&](int k, double fallback) -> double {
       if (col[k] == 0)

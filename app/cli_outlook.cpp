@@ -115,39 +115,14 @@ std::vector<cb::ClassDemand> readDemandFile(const std::string &path, cb::Finding
   cb::CsvReader reader(in, path);
   cb::CsvRecord rec;
   std::vector<cb::ClassDemand> classes;
-  if (!reader.next(rec)) {
-    if (reader.fatal())
-      findings.push_back(*reader.fatal());
-    else
-      findings.push_back({cb::Severity::Error, path, 1, 0, "the file is empty"});
-    return classes;
-  }
-  const char *names[] = {"segment", "rate", "mean", "sd"};
-  int col[4] = {0, 0, 0, 0}; // 1-based field numbers
-  for (std::size_t i = 0; i < rec.size(); ++i)
-    for (int k = 0; k < 4; ++k)
-      if (rec[i] == names[k])
-        col[k] = static_cast<int>(i) + 1;
-  for (int k = 0; k < 4; ++k)
-    if (col[k] == 0)
-      findings.push_back({cb::Severity::Error, path, rec.line, 0,
-                          fmt::format("missing column \"{}\" (the header needs "
-                                      "segment,rate,mean,sd)",
-                                      names[k])});
-  if (!findings.empty())
+  std::vector<int> col;
+  if (!readTableHeader(reader, rec, path, {"segment", "rate", "mean", "sd"}, 4,
+                       "segment,rate,mean,sd", col, findings))
     return classes;
   std::map<std::string, std::int64_t> seen;
   while (reader.next(rec)) {
-    if (!rec.problem.empty()) {
-      findings.push_back({cb::Severity::Error, path, rec.line, rec.problemField, rec.problem});
+    if (!tableRecordOk(reader, rec, path, findings))
       continue;
-    }
-    if (rec.size() != reader.headerSize()) {
-      findings.push_back(
-          {cb::Severity::Error, path, rec.line, 0,
-           fmt::format("{} fields where the header has {}", rec.size(), reader.headerSize())});
-      continue;
-    }
     const auto field = [&](int k) -> const cb::CsvField & {
       return rec.fields[static_cast<std::size_t>(col[k] - 1)];
     };

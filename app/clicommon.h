@@ -2,7 +2,9 @@
 // standard output, the date validator and weekday names.
 #pragma once
 
+#include "core/csvreader.h"
 #include "core/date.h"
+#include "core/finding.h"
 #include "core/store.h"
 #include "core/unconstrain.h"
 
@@ -39,5 +41,17 @@ std::unique_ptr<cb::Store> openWithRows(const std::string &path,
                                         std::vector<cb::Reservation> &rows);
 /// The store's sales closures and denials: what unconstraining reads.
 cb::CensorSources censorSources(const cb::Store &store);
+
+/// Reads the header of a small input table (an offer, protection classes): col[k] = 1-based field
+/// of names[k], 0 when absent. The first `required` names must be present, else one finding per
+/// missing column, "missing column "x" (the header needs <needs>)". False when the file is empty
+/// or a column is missing.
+bool readTableHeader(cb::CsvReader &reader, cb::CsvRecord &rec, const std::string &path,
+                     const std::vector<std::string> &names, std::size_t required,
+                     const std::string &needs, std::vector<int> &col, cb::Findings &findings);
+/// True for a well-formed data record (no reader problem, as many fields as the header); else
+/// adds the finding.
+bool tableRecordOk(const cb::CsvReader &reader, const cb::CsvRecord &rec, const std::string &path,
+                   cb::Findings &findings);
 
 } // namespace cbcli
