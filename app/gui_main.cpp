@@ -30,16 +30,34 @@ int main(int argc, char **argv) {
                           QStringLiteral("Save a PNG of the window once loaded, then quit"),
                           QStringLiteral("FILE"));
   parser.addOption(shot);
-  QCommandLineOption screen(QStringLiteral("screen"),
-                            QStringLiteral("Screen to show: horizon, date-study, segment-compare, "
-                                           "year-map, accuracy or property"),
-                            QStringLiteral("NAME"));
+  QCommandLineOption screen(
+      QStringLiteral("screen"),
+      QStringLiteral("Screen to show: %1")
+          .arg(cbui::MainWindow::screenNames().join(QStringLiteral(", "))),
+      QStringLiteral("NAME"));
   parser.addOption(screen);
   QCommandLineOption size(QStringLiteral("size"),
                           QStringLiteral("Window size, e.g. 1366x768 (for screenshots)"),
                           QStringLiteral("WxH"));
   parser.addOption(size);
+  QCommandLineOption listScreens(QStringLiteral("list-screens"),
+                                 QStringLiteral("Print the screens' names, one per line, and quit"));
+  parser.addOption(listScreens);
   parser.process(app);
+  if (parser.isSet(listScreens)) {
+    for (const QString &name : cbui::MainWindow::screenNames())
+      std::printf("%s\n", qPrintable(name));
+    return 0;
+  }
+  int screenIndex = -1;
+  if (parser.isSet(screen)) {
+    screenIndex = cbui::MainWindow::screenFromName(parser.value(screen));
+    if (screenIndex < 0) {
+      std::fprintf(stderr, "curvebench-gui: no screen named \"%s\" (try --list-screens)\n",
+                   qPrintable(parser.value(screen)));
+      return 1;
+    }
+  }
 
   cbui::MainWindow window;
   if (parser.isSet(size)) {
@@ -47,16 +65,8 @@ int main(int argc, char **argv) {
     if (wh.size() == 2)
       window.resize(wh[0].toInt(), wh[1].toInt());
   }
-  if (parser.isSet(screen)) {
-    const QString name = parser.value(screen);
-    window.showScreen(name == QLatin1String("date-study") ? cbui::MainWindow::DateStudyScreen
-                      : name == QLatin1String("segment-compare")
-                          ? cbui::MainWindow::SegmentCompareScreen
-                      : name == QLatin1String("year-map") ? cbui::MainWindow::YearMapScreen
-                      : name == QLatin1String("accuracy") ? cbui::MainWindow::AccuracyScreen
-                      : name == QLatin1String("property") ? cbui::MainWindow::PropertyScreen
-                                                          : cbui::MainWindow::HorizonScreen);
-  }
+  if (screenIndex >= 0)
+    window.showScreen(static_cast<cbui::MainWindow::Screen>(screenIndex));
   window.show();
 
   if (parser.isSet(shot)) {

@@ -226,7 +226,8 @@ MainWindow::MainWindow(QWidget *parent)
       setReadingDate(fromQDate(date));
   });
   connect(tabs_, &QTabWidget::currentChanged, this, [this](int i) {
-    settings().setValue(QStringLiteral("window/screen"), i);
+    // By name: an index would point at another screen once screens are added.
+    settings().setValue(QStringLiteral("window/screenName"), screenNames().value(i));
     refreshLazyScreens();
   });
 
@@ -234,7 +235,8 @@ MainWindow::MainWindow(QWidget *parent)
   QSettings s = settings();
   restoreGeometry(s.value(QStringLiteral("window/geometry")).toByteArray());
   restoreState(s.value(QStringLiteral("window/state")).toByteArray());
-  tabs_->setCurrentIndex(s.value(QStringLiteral("window/screen"), 0).toInt());
+  tabs_->setCurrentIndex(
+      std::max(0, screenFromName(s.value(QStringLiteral("window/screenName")).toString())));
 }
 
 MainWindow::~MainWindow() {
@@ -545,6 +547,16 @@ void MainWindow::showNight(cb::Date night) {
 }
 
 QDate MainWindow::studiedNight() const { return night_; }
+
+QStringList MainWindow::screenNames() {
+  return {QStringLiteral("horizon"),  QStringLiteral("date-study"),
+          QStringLiteral("segment-compare"), QStringLiteral("year-map"),
+          QStringLiteral("accuracy"), QStringLiteral("property")};
+}
+
+int MainWindow::screenFromName(const QString &name) {
+  return static_cast<int>(screenNames().indexOf(name));
+}
 
 void MainWindow::showScreen(Screen screen) { tabs_->setCurrentIndex(screen); }
 

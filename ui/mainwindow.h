@@ -7,6 +7,7 @@
 
 #include <QDate>
 #include <QMainWindow>
+#include <QStringList>
 
 #include <atomic>
 #include <cstdint>
@@ -72,6 +73,11 @@ public:
   void importCsv(const std::filesystem::path &file);
   void showScreen(Screen screen);
   Screen currentScreen() const;
+  /// The screens' names, in Screen order, as `--screen` and the saved settings spell them
+  /// ("horizon", "date-study", …).
+  static QStringList screenNames();
+  /// The screen named `name` (see screenNames), or -1.
+  static int screenFromName(const QString &name);
 
   const WorkbenchSession *session() const { return session_.get(); }
   DateStudyPanel *dateStudy() const { return dateStudy_; }
