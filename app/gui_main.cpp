@@ -30,18 +30,18 @@ int main(int argc, char **argv) {
                           QStringLiteral("Save a PNG of the window once loaded, then quit"),
                           QStringLiteral("FILE"));
   parser.addOption(shot);
-  QCommandLineOption screen(
-      QStringLiteral("screen"),
-      QStringLiteral("Screen to show: %1")
-          .arg(cbui::MainWindow::screenNames().join(QStringLiteral(", "))),
-      QStringLiteral("NAME"));
+  QCommandLineOption screen(QStringLiteral("screen"),
+                            QStringLiteral("Screen to show: %1")
+                                .arg(cbui::MainWindow::screenNames().join(QStringLiteral(", "))),
+                            QStringLiteral("NAME"));
   parser.addOption(screen);
   QCommandLineOption size(QStringLiteral("size"),
                           QStringLiteral("Window size, e.g. 1366x768 (for screenshots)"),
                           QStringLiteral("WxH"));
   parser.addOption(size);
-  QCommandLineOption listScreens(QStringLiteral("list-screens"),
-                                 QStringLiteral("Print the screens' names, one per line, and quit"));
+  QCommandLineOption listScreens(
+      QStringLiteral("list-screens"),
+      QStringLiteral("Print the screens' names, one per line, and quit"));
   parser.addOption(listScreens);
   parser.process(app);
   if (parser.isSet(listScreens)) {

@@ -549,9 +549,9 @@ void MainWindow::showNight(cb::Date night) {
 QDate MainWindow::studiedNight() const { return night_; }
 
 QStringList MainWindow::screenNames() {
-  return {QStringLiteral("horizon"),  QStringLiteral("date-study"),
+  return {QStringLiteral("horizon"),         QStringLiteral("date-study"),
           QStringLiteral("segment-compare"), QStringLiteral("year-map"),
-          QStringLiteral("accuracy"), QStringLiteral("property")};
+          QStringLiteral("accuracy"),        QStringLiteral("property")};
 }
 
 int MainWindow::screenFromName(const QString &name) {
