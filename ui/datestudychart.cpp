@@ -164,8 +164,15 @@ void DateStudyChart::setData(const DateStudyChartData &c) {
     label->setColor(palette::readingDate());
   }
 
+  // The hover crosshair follows a curve with points (a tracer on an empty graph warns at
+  // every replot); none when neither year has any.
+  QCPGraph *traced = thisYear->data()->isEmpty() ? lastYear : thisYear;
+  if (traced->data()->isEmpty()) {
+    resetView();
+    return;
+  }
   tracer_ = new QCPItemTracer(plot_);
-  tracer_->setGraph(thisYear->data()->isEmpty() ? lastYear : thisYear);
+  tracer_->setGraph(traced);
   tracer_->setStyle(QCPItemTracer::tsCrosshair);
   tracer_->setPen(QPen(QColor(0x66, 0x66, 0x66), 0.8, Qt::DotLine));
   tracer_->setVisible(false);

@@ -239,8 +239,9 @@ QVariant SegmentCompareTable::data(const QModelIndex &index, int role) const {
 QVariant SegmentCompareTable::headerData(int section, Qt::Orientation orientation, int role) const {
   if (orientation != Qt::Horizontal || section < 0 || section >= ColumnCount)
     return {};
-  static const char *const names[] = {"Segment", "OTB now",  "STLY OTB",    "vs STLY",
-                                      "Final",   "LY final", "Share of OTB"};
+  // Short names so the table fits beside the chart at 1366 px; the tooltips say the rest.
+  static const char *const names[] = {"Segment", "OTB",      "STLY OTB", "vs STLY",
+                                      "Final",   "LY final", "Share"};
   static const char *const tips[] = {
       "Segment (hotel total first)",
       "Rooms on the books per night at the reading date (average over the nights chosen)",

@@ -145,10 +145,10 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   d_->table->setEditTriggers(QAbstractItemView::NoEditTriggers);
   d_->table->setSelectionMode(QAbstractItemView::NoSelection);
   d_->table->horizontalHeader()->setSectionResizeMode(QHeaderView::ResizeToContents);
-  // Long segment names elide (full name in the tooltip) so every figure column fits.
+  // The segment column takes the room the figures leave; long names elide (full name in the
+  // tooltip) so every figure column fits at 1366 px.
   d_->table->horizontalHeader()->setSectionResizeMode(SegmentCompareTable::Segment,
-                                                      QHeaderView::Interactive);
-  d_->table->setColumnWidth(SegmentCompareTable::Segment, 118);
+                                                      QHeaderView::Stretch);
   d_->table->setWordWrap(false);
   d_->table->verticalHeader()->setDefaultSectionSize(d_->table->fontMetrics().height() + 6);
 
@@ -312,6 +312,9 @@ void SegmentComparePanel::recompute() {
       }
     }
     d_->model->setData(data);
+    // "Final" is blank until every chosen night is past: hide it then, to save room.
+    d_->table->setColumnHidden(SegmentCompareTable::FinalNow,
+                               data.series.empty() || !data.series.front().finalNow);
     QString what =
         data.nights == 1
             ? QStringLiteral("Night %1").arg(QLocale().toString(toQDate(data.first), kDateFormat))
