@@ -4,6 +4,7 @@
 #include "ui/csvexport.h"
 #include "ui/segmentcomparechart.h"
 #include "ui/segmentcomparemodel.h"
+#include "ui/tableexport.h"
 #include "ui/workbenchsession.h"
 
 #include <QCheckBox>
@@ -133,11 +134,15 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   controls->addWidget(d_->busy);
   controls->addWidget(d_->status, 1);
   auto *exportTable = new QPushButton(QStringLiteral("Table CSV…"));
+  auto *exportXlsx = new QPushButton(QStringLiteral("XLSX…"));
+  exportXlsx->setToolTip(QStringLiteral("Save the this-year-vs-last-year table as an Excel "
+                                        "workbook"));
   auto *exportCharts = new QPushButton(QStringLiteral("Charts PNG/PDF…"));
   exportTable->setToolTip(QStringLiteral("Save the this-year-vs-last-year table as CSV"));
   exportCharts->setToolTip(QStringLiteral("Save the three charts (name-curves, name-window, "
                                           "name-rate); right-click a chart to save it alone"));
   controls->addWidget(exportTable);
+  controls->addWidget(exportXlsx);
   controls->addWidget(exportCharts);
 
   d_->table->setModel(d_->model);
@@ -183,17 +188,15 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   connect(d_->unit, &QComboBox::currentIndexChanged, this, &SegmentComparePanel::redraw);
   connect(d_->lastYear, &QCheckBox::toggled, this, &SegmentComparePanel::redraw);
   connect(d_->segments, &QListWidget::itemChanged, this, &SegmentComparePanel::redraw);
-  connect(exportTable, &QPushButton::clicked, this, [this] {
-    const QString file = QFileDialog::getSaveFileName(
-        this, QStringLiteral("Save the Segment Compare table"),
-        QStringLiteral("segment-compare.csv"), QStringLiteral("CSV files (*.csv)"));
-    if (file.isEmpty())
-      return;
-    QString error;
-    d_->status->setText(writeTextFile(file, tableToCsv(*d_->model), &error)
-                            ? QStringLiteral("Saved %1").arg(file)
-                            : error);
-  });
+  auto exportTableAs = [this](TableFormat format) {
+    const QString done = saveTableAs(this, *d_->model, QStringLiteral("segment-compare"), format);
+    if (!done.isEmpty())
+      d_->status->setText(done);
+  };
+  connect(exportTable, &QPushButton::clicked, this,
+          [exportTableAs] { exportTableAs(TableFormat::Csv); });
+  connect(exportXlsx, &QPushButton::clicked, this,
+          [exportTableAs] { exportTableAs(TableFormat::Xlsx); });
   connect(exportCharts, &QPushButton::clicked, this, [this] {
     const QString file =
         QFileDialog::getSaveFileName(this, QStringLiteral("Save the Segment Compare charts"),

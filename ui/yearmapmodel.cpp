@@ -12,6 +12,7 @@
 
 #include <QDate>
 #include <QLocale>
+#include <QStandardItemModel>
 
 #include <algorithm>
 #include <array>
@@ -261,7 +262,7 @@ QString yearMapTip(const YearMapData &data, std::size_t night, std::optional<std
   return lines.join(QLatin1Char('\n'));
 }
 
-QString yearMapCsv(const YearMapData &data) {
+std::unique_ptr<QStandardItemModel> yearMapTable(const YearMapData &data) {
   auto num = [](const auto &v, int decimals) {
     return v ? QString::number(static_cast<double>(*v), 'f', decimals) : QString();
   };
@@ -271,9 +272,13 @@ QString yearMapCsv(const YearMapData &data) {
                    QStringLiteral("forecast_lo"), QStringLiteral("forecast_hi"),
                    QStringLiteral("capacity"),    QStringLiteral("demand_over_capacity"),
                    QStringLiteral("season"),      QStringLiteral("event")};
+  const qsizetype numbersFrom = 2, numbersTo = 9; // past … demand_over_capacity
   for (const auto &s : data.segments)
-    head << csvField(QStringLiteral("rooms_") + qs(s));
-  QString out = head.join(QLatin1Char(',')) + QLatin1Char('\n');
+    head << QStringLiteral("rooms_") + qs(s);
+  auto table = std::make_unique<QStandardItemModel>(static_cast<int>(data.nights.size()),
+                                                    static_cast<int>(head.size()));
+  table->setHorizontalHeaderLabels(head);
+  int row = 0;
   for (const YearMapNight &n : data.nights) {
     const QString ratio =
         n.rooms && n.capacity > 0 ? QString::number(*n.rooms / n.capacity, 'f', 4) : QString();
@@ -289,12 +294,21 @@ QString yearMapCsv(const YearMapData &data) {
         QString::number(n.capacity),
         ratio,
         n.season ? qs(std::string(cb::seasonName(*n.season))) : QString(),
-        csvField(qs(n.event))};
+        qs(n.event)};
     for (const auto &r : n.segmentRooms)
       cells << num(r, 2);
-    out += cells.join(QLatin1Char(',')) + QLatin1Char('\n');
+    for (qsizetype c = 0; c < cells.size(); ++c) {
+      auto *item = new QStandardItem(cells[c]);
+      // Numbers (and blanks) export as numbers; night, weekday, season and event as text.
+      if ((c >= numbersFrom && c <= numbersTo) || c >= 12)
+        item->setData(cells[c], kCsvValueRole);
+      table->setItem(row, static_cast<int>(c), item);
+    }
+    ++row;
   }
-  return out;
+  return table;
 }
+
+QString yearMapCsv(const YearMapData &data) { return tableToCsv(*yearMapTable(data)); }
 
 } // namespace cbui

@@ -12,6 +12,9 @@
 #include <QColor>
 #include <QString>
 
+class QStandardItemModel;
+
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -79,8 +82,11 @@ std::optional<double> segmentShare(const YearMapNight &n, std::size_t segment);
 /// The hover text of a night: date, actual or forecast, capacity, demand / capacity, season, and
 /// the segment's rooms and share when `segment` is given.
 QString yearMapTip(const YearMapData &data, std::size_t night, std::optional<std::size_t> segment);
-/// Every night of the map as CSV: night, weekday, past, rooms (actual or forecast), final, OTB,
-/// band, capacity, demand / capacity, season, then rooms per segment; plain numbers, one header.
+/// Every night of the map as a table: night, weekday, past, rooms (actual or forecast), final,
+/// OTB, band, capacity, demand / capacity, season, event, then rooms per segment; each number's
+/// plain text in kCsvValueRole, so the CSV and XLSX exports (tableexport.h) carry numbers.
+std::unique_ptr<QStandardItemModel> yearMapTable(const YearMapData &data);
+/// yearMapTable as CSV text (one header line).
 QString yearMapCsv(const YearMapData &data);
 
 } // namespace cbui

@@ -2,6 +2,7 @@
 #include "ui/yearmappanel.h"
 
 #include "ui/csvexport.h"
+#include "ui/tableexport.h"
 #include "ui/workbenchsession.h"
 #include "ui/yearmapmodel.h"
 #include "ui/yearmapview.h"
@@ -15,6 +16,7 @@
 #include <QProgressBar>
 #include <QPushButton>
 #include <QSpinBox>
+#include <QStandardItemModel>
 #include <QVBoxLayout>
 #include <QtConcurrent/QtConcurrentRun>
 
@@ -82,10 +84,14 @@ YearMapPanel::YearMapPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   controls->addWidget(d_->busy);
   controls->addWidget(d_->status, 1);
   auto *exportCsv = new QPushButton(QStringLiteral("Nights CSV…"));
+  auto *exportXlsx = new QPushButton(QStringLiteral("XLSX…"));
+  exportXlsx->setToolTip(QStringLiteral("Save every night's figures of the year as an Excel "
+                                        "workbook"));
   auto *exportMap = new QPushButton(QStringLiteral("Map PNG/PDF…"));
   exportCsv->setToolTip(QStringLiteral("Save every night's figures of the year as CSV"));
   exportMap->setToolTip(QStringLiteral("Save the map with its legend as PNG or PDF"));
   controls->addWidget(exportCsv);
+  controls->addWidget(exportXlsx);
   controls->addWidget(exportMap);
   auto *layout = new QVBoxLayout(this);
   layout->addLayout(controls);
@@ -95,19 +101,19 @@ YearMapPanel::YearMapPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   connect(d_->colouring, &QComboBox::currentIndexChanged, this, &YearMapPanel::redraw);
   connect(d_->segment, &QComboBox::currentIndexChanged, this, &YearMapPanel::redraw);
   connect(d_->view, &YearMapView::nightActivated, this, &YearMapPanel::nightActivated);
-  connect(exportCsv, &QPushButton::clicked, this, [this] {
+  auto exportNights = [this](TableFormat format) {
     if (!d_->data)
       return;
-    const QString file = QFileDialog::getSaveFileName(
-        this, QStringLiteral("Save the Year Map's nights"),
-        QStringLiteral("year-map-%1.csv").arg(d_->data->year), QStringLiteral("CSV files (*.csv)"));
-    if (file.isEmpty())
-      return;
-    QString error;
-    d_->status->setText(writeTextFile(file, yearMapCsv(*d_->data), &error)
-                            ? QStringLiteral("Saved %1").arg(file)
-                            : error);
-  });
+    const auto table = yearMapTable(*d_->data);
+    const QString done =
+        saveTableAs(this, *table, QStringLiteral("year-map-%1").arg(d_->data->year), format);
+    if (!done.isEmpty())
+      d_->status->setText(done);
+  };
+  connect(exportCsv, &QPushButton::clicked, this,
+          [exportNights] { exportNights(TableFormat::Csv); });
+  connect(exportXlsx, &QPushButton::clicked, this,
+          [exportNights] { exportNights(TableFormat::Xlsx); });
   connect(exportMap, &QPushButton::clicked, this, [this] {
     const QString file = QFileDialog::getSaveFileName(
         this, QStringLiteral("Save the Year Map"), QStringLiteral("year-map.png"),
