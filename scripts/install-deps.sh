@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # Installs the Debian packages Curvebench builds, tests and runs with — only those missing.
-# Usage: scripts/install-deps.sh [--with-display-tools]
+# Usage: scripts/install-deps.sh
 set -euo pipefail
 
 packages=(
@@ -10,10 +10,10 @@ packages=(
   libfmt-dev libboost-math-dev libboost-dev libssl-dev clang-format libbenchmark-dev
   libnlopt-cxx-dev libxlsxwriter-dev
   python3 python3-openpyxl poppler-utils
+  xvfb xauth imagemagick     # the workbench without a display; screenshot checks
+  clang libclang-rt-14-dev   # libFuzzer harnesses (scripts/fuzz.sh)
 )
-if [[ "${1:-}" == "--with-display-tools" ]]; then
-  packages+=(xvfb xauth imagemagick)
-fi
+# --with-display-tools: kept for older callers; the display tools are now always installed.
 
 missing=()
 for p in "${packages[@]}"; do

@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # The README's test command: installs what is missing, builds with warnings as errors and runs
 # every test (core, command line end to end, ui offscreen), then checks formatting.
-# Set CURVEBENCH_SANITIZE_RUN=1 to add an AddressSanitizer/UBSan build of the tests.
+# Set CURVEBENCH_SANITIZE_RUN=1 to add an AddressSanitizer/UBSan build of the tests, and
+# CURVEBENCH_FUZZ_RUN=1 to add a short libFuzzer run of each harness (scripts/fuzz.sh).
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 cd "$root"
@@ -24,4 +25,8 @@ if [[ "${CURVEBENCH_SANITIZE_RUN:-0}" == "1" ]]; then
     -DCURVEBENCH_BUILD_GUI=OFF -DCURVEBENCH_WERROR=OFF
   cmake --build "$build-asan" -j "$jobs"
   ctest --test-dir "$build-asan" --output-on-failure -j "$jobs"
+fi
+
+if [[ "${CURVEBENCH_FUZZ_RUN:-0}" == "1" ]]; then
+  bash scripts/fuzz.sh "${CURVEBENCH_FUZZ_SECONDS:-30}"
 fi
