@@ -279,7 +279,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   }
   if (!profile->bind(header, label, findings))
     return failed();
-  if (lenient && options.rejectsFile && !options.dryRun && !rejects.open(*options.rejectsFile, header)) {
+  if (lenient && options.rejectsFile && !options.dryRun &&
+      !rejects.open(*options.rejectsFile, header)) {
     ioError(fmt::format("cannot write the rejects file {}: {}", options.rejectsFile->string(),
                         std::strerror(rejects.error())));
     return failed();

@@ -140,10 +140,10 @@ TEST_F(BlockImport, DryRunWritesAndLogsNothing) {
   cb::ImportOptions o;
   o.dryRun = true;
   o.mode = cb::ImportMode::Lenient;
-  auto rep = import(std::string(kHeader) +
-                    "B1,,GRP,2026-05-01,2026-05-03,20,2026-04-10,definite,,\n"
-                    "B2,,GRP,2026-06-01,2026-05-02,5,2026-05-01,tentative,,\n",
-                    o);
+  auto rep =
+      import(std::string(kHeader) + "B1,,GRP,2026-05-01,2026-05-03,20,2026-04-10,definite,,\n"
+                                    "B2,,GRP,2026-06-01,2026-05-02,5,2026-05-01,tentative,,\n",
+             o);
   EXPECT_FALSE(rep.written);
   EXPECT_EQ(rep.log.added, 1);
   EXPECT_EQ(rep.log.rejected, 1);
