@@ -1,5 +1,6 @@
 // curvebench-gui — opens the workbench on a store (default: the sample property, built on
 // first run in the user's data folder).
+#include "ui/datapanel.h"
 #include "ui/mainwindow.h"
 
 #include <QApplication>
@@ -12,6 +13,7 @@
 #include <cstdio>
 #include <filesystem>
 #include <memory>
+#include <utility>
 
 int main(int argc, char **argv) {
   QApplication app(argc, argv);
@@ -32,13 +34,19 @@ int main(int argc, char **argv) {
   parser.addOption(shot);
   QCommandLineOption screen(QStringLiteral("screen"),
                             QStringLiteral("Screen to show: horizon, date-study, segment-compare, "
-                                           "year-map, accuracy or property"),
+                                           "year-map, accuracy, data or property"),
                             QStringLiteral("NAME"));
   parser.addOption(screen);
   QCommandLineOption size(QStringLiteral("size"),
                           QStringLiteral("Window size, e.g. 1366x768 (for screenshots)"),
                           QStringLiteral("WxH"));
   parser.addOption(size);
+  QCommandLineOption importFile(
+      QStringLiteral("import-file"),
+      QStringLiteral(
+          "Read FILE in the Data screen's import steps and validate it (writes nothing)"),
+      QStringLiteral("FILE"));
+  parser.addOption(importFile);
   parser.process(app);
 
   cbui::MainWindow window;
@@ -54,10 +62,22 @@ int main(int argc, char **argv) {
                           ? cbui::MainWindow::SegmentCompareScreen
                       : name == QLatin1String("year-map") ? cbui::MainWindow::YearMapScreen
                       : name == QLatin1String("accuracy") ? cbui::MainWindow::AccuracyScreen
+                      : name == QLatin1String("data")     ? cbui::MainWindow::DataScreen
                       : name == QLatin1String("property") ? cbui::MainWindow::PropertyScreen
                                                           : cbui::MainWindow::HorizonScreen);
   }
   window.show();
+
+  if (parser.isSet(importFile)) {
+    const QString file = parser.value(importFile);
+    auto once = std::make_shared<bool>(false);
+    QObject::connect(&window, &cbui::MainWindow::sessionLoaded, &window, [&window, file, once] {
+      if (std::exchange(*once, true))
+        return;
+      window.dataPanel()->chooseFile(file);
+      window.dataPanel()->validate();
+    });
+  }
 
   if (parser.isSet(shot)) {
     QString file = parser.value(shot);

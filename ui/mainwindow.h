@@ -5,10 +5,11 @@
 // imported into the open store in the background, its findings listed in a dock, not a dialog.
 #pragma once
 
+#include "ui/importcontrol.h"
+
 #include <QDate>
 #include <QMainWindow>
 
-#include <atomic>
 #include <cstdint>
 #include <filesystem>
 #include <memory>
@@ -36,12 +37,7 @@ class SegmentComparePanel;
 class YearMapPanel;
 class FindingsPanel;
 class AccuracyPanel;
-
-/// Cancel flag and progress of a background import (shared with the worker).
-struct ImportControl {
-  std::atomic<bool> cancel{false};
-  std::atomic<std::int64_t> done{0}, total{0};
-};
+class DataPanel;
 
 class MainWindow : public QMainWindow {
   Q_OBJECT
@@ -52,7 +48,8 @@ public:
     SegmentCompareScreen = 2,
     YearMapScreen = 3,
     AccuracyScreen = 4,
-    PropertyScreen = 5
+    DataScreen = 5,
+    PropertyScreen = 6
   };
 
   explicit MainWindow(QWidget *parent = nullptr);
@@ -81,6 +78,7 @@ public:
   YearMapPanel *yearMapPanel() const { return yearMap_; }
   FindingsPanel *findingsPanel() const { return findings_; }
   AccuracyPanel *accuracyPanel() const { return accuracy_; }
+  DataPanel *dataPanel() const { return data_; }
   /// Cancels the running import (as its Cancel button does); nothing is written.
   void cancelImport();
   /// The night Date Study shows.
@@ -117,6 +115,7 @@ private:
   bool compareStale_ = true, yearMapStale_ = true;
   DateStudyPanel *dateStudy_;
   AccuracyPanel *accuracy_;
+  DataPanel *data_;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;
   QDate night_; ///< the night Date Study shows
