@@ -203,9 +203,18 @@ bool ImportDraft::startFrom(const QString &nameOrPath, QString *error) {
       return false;
     }
     const QByteArray text = f.readAll();
+    p = QJsonDocument::fromJson(text).object();
+    // The kind first: the other kind's parser would only list the keys it does not know.
+    if (!p.isEmpty() && isBlocksProfile(p) != (kind_ == ImportKind::Blocks)) {
+      if (error)
+        *error =
+            kind_ == ImportKind::Blocks
+                ? QStringLiteral("%1 is a reservations profile, not a blocks one").arg(nameOrPath)
+                : QStringLiteral("%1 is a blocks profile, not a reservations one").arg(nameOrPath);
+      return false;
+    }
     if (!coreAccepts(kind_, text, nameOrPath, error))
       return false;
-    p = QJsonDocument::fromJson(text).object();
   }
   if (isBlocksProfile(p) != (kind_ == ImportKind::Blocks)) {
     if (error)
