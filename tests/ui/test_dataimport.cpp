@@ -13,8 +13,10 @@
 #include "ui/findingspanel.h"
 #include "ui/importjob.h"
 
+#include <QComboBox>
 #include <QSignalSpy>
 #include <QStandardPaths>
+#include <QTableView>
 #include <QTableWidget>
 #include <QTest>
 
@@ -387,6 +389,35 @@ private slots:
     QCOMPARE(panel.importLogModel()->rowCount(), 3);
   }
 
+  // Picking a column in the mapping table's combo (as a user does) changes the draft; the
+  // screen's notes follow once the editor has closed.
+  void mappingTableComboEdits() {
+    cbtest::TempDir dir;
+    cbtest::writeFile(dir / "extract.csv", std::string(kOtherHeader) + kOtherRows);
+    cbui::DataPanel panel;
+    panel.resize(1200, 700);
+    panel.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&panel));
+    QVERIFY(panel.chooseFile(q(dir / "extract.csv")));
+    QCOMPARE(panel.draft().row(QStringLiteral("rate")).column, QStringLiteral("ADR"));
+    auto *view = panel.findChild<QTableView *>(QStringLiteral("mappingTable"));
+    QVERIFY(view);
+    const int rate = static_cast<int>(panel.draft().fields().indexOf(QStringLiteral("rate")));
+    const QModelIndex cell = view->model()->index(rate, cbui::MappingModel::SourceCol);
+    view->setCurrentIndex(cell);
+    view->edit(cell);
+    QComboBox *combo = view->findChild<QComboBox *>();
+    QVERIFY(combo);
+    QCOMPARE(combo->currentText(), QStringLiteral("ADR"));
+    QVERIFY(combo->findText(QStringLiteral("Notes")) >= 0);
+    combo->setCurrentIndex(combo->findText(QStringLiteral("Notes")));
+    QTest::keyClick(combo, Qt::Key_Return);
+    QTRY_COMPARE(panel.draft().row(QStringLiteral("rate")).column, QStringLiteral("Notes"));
+    QVERIFY(panel.draft().edited());
+    QTRY_COMPARE(view->model()->index(rate, cbui::MappingModel::ValueCol).data().toString(),
+                 QString()); // the first row's Notes is empty
+  }
+
   // Group blocks: their own fields and native profile.
   void blocksKind() {
     cbtest::TempDir dir;
@@ -437,6 +468,12 @@ private slots:
     QCOMPARE(cell(cbui::ImportLogModel::ProfileCol), QStringLiteral("pms.json"));
     QCOMPARE(m.headerData(cbui::ImportLogModel::RejectedCol, Qt::Horizontal).toString(),
              QStringLiteral("Rejected"));
+    // The CSV export has plain numbers and full paths.
+    const QString csv = cbui::tableToCsv(m);
+    QVERIFY2(csv.contains(QStringLiteral("2026-12-02T07:31:39Z,/data/extracts/h1.csv,reservations,"
+                                         "/data/profiles/pms.json,strict,119390,119390,0,0,0,"
+                                         "written")),
+             qPrintable(csv));
   }
 
   void healthSummary() {
