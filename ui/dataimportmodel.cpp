@@ -461,6 +461,9 @@ bool ImportDraft::ready() const { return !header_.isEmpty() && unmapped().isEmpt
 bool ImportDraft::saveProfile(const QString &path, QString *error) {
   QJsonObject p = profile_;
   p.insert(QStringLiteral("name"), QFileInfo(path).completeBaseName());
+  p.insert(QStringLiteral("description"),
+           QStringLiteral("Saved in the Curvebench workbench (Data screen), started from %1")
+               .arg(source_ == path ? profileName() : QFileInfo(source_).fileName()));
   if (kind_ == ImportKind::Reservations)
     p.insert(QStringLiteral("version"), 1);
   const QByteArray text = QJsonDocument(p).toJson(QJsonDocument::Indented);

@@ -224,6 +224,20 @@ private slots:
     QCOMPARE(out.report.log.rejected, std::int64_t(0));
     QCOMPARE(cb::Store::open(dir / "s.curvebench")->reservationCount(), std::int64_t(0));
 
+    // Saved as it is, the derived fields survive and the importer's loader reads it back.
+    QString error;
+    QVERIFY2(draft.saveProfile(q(dir / "open-copy.json"), &error), qPrintable(error));
+    cb::Findings findings;
+    QVERIFY(cb::MappingProfile::load((dir / "open-copy.json").string(), findings).has_value());
+    cbui::ImportDraft copy;
+    QVERIFY(copy.startFrom(q(dir / "open-copy.json")));
+    copy.setFile(q(dir / "open.csv"));
+    QCOMPARE(copy.row(QStringLiteral("departure")).description,
+             draft.row(QStringLiteral("departure")).description);
+    QCOMPARE(copy.row(QStringLiteral("departure")).description,
+             QStringLiteral("arrival + “stays_in_weekend_nights” + “stays_in_week_nights” days"));
+    QVERIFY(copy.ready());
+
     std::string header = kOpenHeader;
     header.replace(header.find("lead_time,"), 10, "lead,");
     cbtest::writeFile(dir / "nolead.csv", header + kOpenRow);
