@@ -543,6 +543,9 @@ void DataPanel::draftChanged(const QString &note) {
   d_->choose->setEnabled(idle);
   if (d_->store.empty())
     d_->result->setText(QStringLiteral("Open a store first: imports go into the open store."));
+  else if (dr.file().isEmpty())
+    d_->result->setText(QStringLiteral("Choose a file, check where each field is read from, then "
+                                       "Validate: nothing is written until you commit."));
 }
 
 void DataPanel::validate() { startJob(true, true); }
