@@ -1,5 +1,6 @@
 // curvebench-gui — opens the workbench on a store (default: the sample property, built on
 // first run in the user's data folder).
+#include "ui/datapanel.h"
 #include "ui/mainwindow.h"
 
 #include <QApplication>
@@ -12,6 +13,7 @@
 #include <cstdio>
 #include <filesystem>
 #include <memory>
+#include <utility>
 
 int main(int argc, char **argv) {
   QApplication app(argc, argv);
@@ -43,6 +45,12 @@ int main(int argc, char **argv) {
       QStringLiteral("list-screens"),
       QStringLiteral("Print the screens' names, one per line, and quit"));
   parser.addOption(listScreens);
+  QCommandLineOption importFile(
+      QStringLiteral("import-file"),
+      QStringLiteral(
+          "Read FILE in the Data screen's import steps and validate it (writes nothing)"),
+      QStringLiteral("FILE"));
+  parser.addOption(importFile);
   parser.process(app);
   if (parser.isSet(listScreens)) {
     for (const QString &name : cbui::MainWindow::screenNames())
@@ -68,6 +76,17 @@ int main(int argc, char **argv) {
   if (screenIndex >= 0)
     window.showScreen(static_cast<cbui::MainWindow::Screen>(screenIndex));
   window.show();
+
+  if (parser.isSet(importFile)) {
+    const QString file = parser.value(importFile);
+    auto once = std::make_shared<bool>(false);
+    QObject::connect(&window, &cbui::MainWindow::sessionLoaded, &window, [&window, file, once] {
+      if (std::exchange(*once, true))
+        return;
+      window.dataPanel()->chooseFile(file);
+      window.dataPanel()->validate();
+    });
+  }
 
   if (parser.isSet(shot)) {
     QString file = parser.value(shot);

@@ -55,10 +55,13 @@ ImportReport importBlocks(Store &store, const std::filesystem::path &file,
     tx.reset();
     log.added = log.updated = log.unchanged = 0;
     log.finishedAt = nowUtc();
-    log.id = store.logFailedImport(log);
+    if (!options.dryRun)
+      log.id = store.logFailedImport(log);
     return rep;
   };
-  auto profile = BlockProfile::load(log.profile, findings);
+  auto profile = options.profileText.empty()
+                     ? BlockProfile::load(log.profile, findings)
+                     : BlockProfile::parse(options.profileText, log.profile, findings);
   if (!profile) {
     rep.ioOrUsageError = true;
     return failed();
@@ -88,7 +91,8 @@ ImportReport importBlocks(Store &store, const std::filesystem::path &file,
   if (!profile->bind(header, label, findings))
     return failed();
 
-  std::string rejected = lenient && options.rejectsFile ? csvLine(header, "problem") : "";
+  std::string rejected =
+      lenient && options.rejectsFile && !options.dryRun ? csvLine(header, "problem") : "";
   tx.emplace(store);
   log.id = store.beginImport(log);
   std::unordered_map<std::string, std::int64_t> firstLine;
@@ -174,6 +178,10 @@ ImportReport importBlocks(Store &store, const std::filesystem::path &file,
     }
   }
   log.finishedAt = nowUtc();
+  if (options.dryRun) {
+    tx.reset(); // rolls back: a validation writes nothing
+    return rep;
+  }
   store.finishImport(log);
   tx->commit();
   rep.written = true;

@@ -235,11 +235,14 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
       log.sha256 = input.finishDigest();
     log.added = log.updated = log.unchanged = 0;
     log.finishedAt = nowUtc();
-    log.id = store.logFailedImport(log);
+    if (!options.dryRun)
+      log.id = store.logFailedImport(log);
     return rep;
   };
 
-  auto profile = MappingProfile::load(log.profile, findings);
+  auto profile = options.profileText.empty()
+                     ? MappingProfile::load(log.profile, findings)
+                     : MappingProfile::parse(options.profileText, log.profile, findings);
   if (!profile) {
     rep.ioOrUsageError = true; // an unknown or broken profile is a usage error, not data
     return failed();
@@ -276,7 +279,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   }
   if (!profile->bind(header, label, findings))
     return failed();
-  if (lenient && options.rejectsFile && !rejects.open(*options.rejectsFile, header)) {
+  if (lenient && options.rejectsFile && !options.dryRun &&
+      !rejects.open(*options.rejectsFile, header)) {
     ioError(fmt::format("cannot write the rejects file {}: {}", options.rejectsFile->string(),
                         std::strerror(rejects.error())));
     return failed();
@@ -384,6 +388,10 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
     options.progress(options.progressContext, fileSize, fileSize);
   log.sha256 = input.finishDigest();
   log.finishedAt = nowUtc();
+  if (options.dryRun) {
+    tx.reset(); // rolls back: a validation writes nothing
+    return rep;
+  }
   store.finishImport(log);
   tx->commit();
   rep.written = true;

@@ -17,6 +17,13 @@ struct ImportOptions {
   /// Profile name (a shipped profile, e.g. "native" or "hotel-bookings-open-data") or a path to
   /// a JSON profile. Empty = native format.
   std::string profile;
+  /// The profile's JSON text, e.g. a mapping edited in the workbench and not saved yet. When
+  /// set, it is parsed instead of loading `profile`, which then only names it (log, findings).
+  std::string profileText;
+  /// Dry run (validation): everything is read, mapped, checked and written inside the
+  /// transaction, which is then rolled back; nothing is logged. The counts say what a real
+  /// import would add, update or leave unchanged. No rejects file is written.
+  bool dryRun = false;
   /// Lenient mode: rejected rows are written here (the original line plus a "problem" column).
   std::optional<std::filesystem::path> rejectsFile;
   ProgressFn progress = nullptr; ///< called every few thousand rows; false cancels (rolls back)

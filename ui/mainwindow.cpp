@@ -6,9 +6,11 @@
 #include "core/store.h"
 #include "core/textformat.h"
 #include "ui/accuracypanel.h"
+#include "ui/datapanel.h"
 #include "ui/datestudypanel.h"
 #include "ui/findingspanel.h"
 #include "ui/horizonpanel.h"
+#include "ui/importjob.h"
 #include "ui/morningbrief.h"
 #include "ui/propertysummarypanel.h"
 #include "ui/segmentcomparepanel.h"
@@ -73,59 +75,16 @@ LoadResult loadSession(const std::filesystem::path &store, bool buildSampleFirst
   }
 }
 
-struct ImportOutcome {
-  bool written = false;
-  QString summary;
-  cb::Findings findings;
-};
-
-bool importProgress(void *context, std::int64_t done, std::int64_t total) {
-  auto *control = static_cast<ImportControl *>(context);
-  control->done = done;
-  control->total = total;
-  return !control->cancel;
-}
-
-ImportOutcome runImport(const std::filesystem::path &store, const std::filesystem::path &file,
-                        ImportControl *control) {
-  ImportOutcome out;
-  try {
-    auto db = cb::Store::open(store);
-    cb::ImportOptions options;
-    options.progress = importProgress;
-    options.progressContext = control;
-    cb::ImportReport report = cb::importReservations(*db, file, options);
-    out.written = report.written;
-    out.findings = report.findings;
-    out.summary =
-        report.cancelled
-            ? QStringLiteral("Import of %1 cancelled: nothing written, the store is as it was")
-                  .arg(QString::fromStdString(file.filename().string()))
-        : report.written
-            ? QStringLiteral("Imported %1: %2 rows read, %3 added, %4 updated, %5 unchanged")
-                  .arg(QString::fromStdString(file.filename().string()),
-                       QString::fromStdString(cb::formatCount(report.log.rowsRead)),
-                       QString::fromStdString(cb::formatCount(report.log.added)),
-                       QString::fromStdString(cb::formatCount(report.log.updated)),
-                       QString::fromStdString(cb::formatCount(report.log.unchanged)))
-            : QStringLiteral("Nothing imported from %1: %2 finding(s), see Findings")
-                  .arg(QString::fromStdString(file.filename().string()))
-                  .arg(report.findings.size());
-  } catch (const std::exception &e) {
-    out.summary = QStringLiteral("Import failed: %1").arg(QString::fromStdString(e.what()));
-  }
-  return out;
-}
-
 } // namespace
 
 MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
       summary_(new PropertySummaryPanel), compare_(new SegmentComparePanel),
       yearMap_(new YearMapPanel), dateStudy_(new DateStudyPanel), accuracy_(new AccuracyPanel),
-      asOfEdit_(new QDateEdit), asOfNote_(new QLabel), progress_(new QProgressBar),
-      findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new FindingsPanel),
-      findingsButton_(new QToolButton), cancelImport_(new QToolButton) {
+      data_(new DataPanel), asOfEdit_(new QDateEdit), asOfNote_(new QLabel),
+      progress_(new QProgressBar), findingsDock_(new QDockWidget(QStringLiteral("Findings"))),
+      findings_(new FindingsPanel), findingsButton_(new QToolButton),
+      cancelImport_(new QToolButton) {
   setWindowTitle(QStringLiteral("Curvebench"));
   setAcceptDrops(true);
 
@@ -154,6 +113,7 @@ MainWindow::MainWindow(QWidget *parent)
   tabs_->addTab(compare_, QStringLiteral("Segment Compare"));
   tabs_->addTab(yearMap_, QStringLiteral("Year Map"));
   tabs_->addTab(accuracy_, QStringLiteral("Accuracy"));
+  tabs_->addTab(data_, QStringLiteral("Data"));
   tabs_->addTab(summary_, QStringLiteral("Property"));
   const char *tips[] = {
       "The next nights at a glance",
@@ -161,6 +121,7 @@ MainWindow::MainWindow(QWidget *parent)
       "Segments side by side: curves, booking window, rate by lead, this year vs last year",
       "A whole year of nights by season class or demand",
       "How well each forecast method did on this property",
+      "Import files step by step, the import log and the data's health",
       "The property and its data"};
   for (int i = 0; i < tabs_->count(); ++i)
     tabs_->setTabToolTip(i,
@@ -192,6 +153,12 @@ MainWindow::MainWindow(QWidget *parent)
     findingsButton_->setText(all == 0         ? QStringLiteral("No findings")
                              : attention == 0 ? QStringLiteral("%1 notes").arg(all)
                                               : QStringLiteral("⚠ %1 findings").arg(all));
+  });
+  data_->setFindingsPanel(findings_);
+  connect(data_, &DataPanel::findingsRequested, this, [this] { findingsDock_->show(); });
+  connect(data_, &DataPanel::storeWritten, this, [this] {
+    if (session_)
+      openStore(session_->path());
   });
   connect(findings_, &FindingsPanel::nightRequested, this, [this](const QDate &night) {
     showNight(fromQDate(night));
@@ -372,6 +339,7 @@ void MainWindow::startHealthCheck() {
                                .arg(QString::fromStdString(store.filename().string()))
                                .arg(found.size()),
                            found);
+    data_->setHealthFindings(found);
   });
   // A store handle of its own: the check reads while the screens use the session.
   watcher->setFuture(QtConcurrent::run([store]() -> cb::Findings {
@@ -440,10 +408,11 @@ void MainWindow::importCsv(const std::filesystem::path &file) {
     }
   });
   poll->start(100);
-  auto *watcher = new QFutureWatcher<ImportOutcome>(this);
-  connect(watcher, &QFutureWatcher<ImportOutcome>::finished, this,
+  auto *watcher = new QFutureWatcher<ImportJobOutcome>(this);
+  connect(watcher, &QFutureWatcher<ImportJobOutcome>::finished, this,
           [this, watcher, store, name, poll] {
-            ImportOutcome r = watcher->result();
+            const ImportJobOutcome o = watcher->result();
+            const cb::ImportReport &r = o.report;
             watcher->deleteLater();
             poll->deleteLater();
             importing_ = false;
@@ -456,14 +425,15 @@ void MainWindow::importCsv(const std::filesystem::path &file) {
                 r.findings);
             if (!r.findings.empty())
               findingsDock_->show();
-            setIdle(r.summary);
+            setIdle(o.summary);
             emit importFinished(r.written);
             if (r.written)
               openStore(store);
           });
   auto control = importControl_;
-  watcher->setFuture(
-      QtConcurrent::run([store, file, control] { return runImport(store, file, control.get()); }));
+  watcher->setFuture(QtConcurrent::run([store, file, control] {
+    return runImportJob(store, file, ImportKind::Reservations, {}, control.get());
+  }));
 }
 
 void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
@@ -502,6 +472,7 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   compareStale_ = yearMapStale_ = true;
   refreshLazyScreens();
   accuracy_->setSession(session_.get());
+  data_->setStore(session_->path());
   showNight(session_->defaultNight());
   emit sessionLoaded();
 }
@@ -551,7 +522,8 @@ QDate MainWindow::studiedNight() const { return night_; }
 QStringList MainWindow::screenNames() {
   return {QStringLiteral("horizon"),         QStringLiteral("date-study"),
           QStringLiteral("segment-compare"), QStringLiteral("year-map"),
-          QStringLiteral("accuracy"),        QStringLiteral("property")};
+          QStringLiteral("accuracy"),        QStringLiteral("data"),
+          QStringLiteral("property")};
 }
 
 int MainWindow::screenFromName(const QString &name) {

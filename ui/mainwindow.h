@@ -5,11 +5,12 @@
 // imported into the open store in the background, its findings listed in a dock, not a dialog.
 #pragma once
 
+#include "ui/importcontrol.h"
+
 #include <QDate>
 #include <QMainWindow>
 #include <QStringList>
 
-#include <atomic>
 #include <cstdint>
 #include <filesystem>
 #include <memory>
@@ -37,12 +38,7 @@ class SegmentComparePanel;
 class YearMapPanel;
 class FindingsPanel;
 class AccuracyPanel;
-
-/// Cancel flag and progress of a background import (shared with the worker).
-struct ImportControl {
-  std::atomic<bool> cancel{false};
-  std::atomic<std::int64_t> done{0}, total{0};
-};
+class DataPanel;
 
 class MainWindow : public QMainWindow {
   Q_OBJECT
@@ -53,7 +49,8 @@ public:
     SegmentCompareScreen = 2,
     YearMapScreen = 3,
     AccuracyScreen = 4,
-    PropertyScreen = 5
+    DataScreen = 5,
+    PropertyScreen = 6
   };
 
   explicit MainWindow(QWidget *parent = nullptr);
@@ -87,6 +84,7 @@ public:
   YearMapPanel *yearMapPanel() const { return yearMap_; }
   FindingsPanel *findingsPanel() const { return findings_; }
   AccuracyPanel *accuracyPanel() const { return accuracy_; }
+  DataPanel *dataPanel() const { return data_; }
   /// Cancels the running import (as its Cancel button does); nothing is written.
   void cancelImport();
   /// The night Date Study shows.
@@ -123,6 +121,7 @@ private:
   bool compareStale_ = true, yearMapStale_ = true;
   DateStudyPanel *dateStudy_;
   AccuracyPanel *accuracy_;
+  DataPanel *data_;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;
   QDate night_; ///< the night Date Study shows

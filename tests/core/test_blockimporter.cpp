@@ -136,6 +136,21 @@ TEST_F(BlockImport, ProfileMapsAnotherLayout) {
   EXPECT_TRUE(cbtest::hasFinding(f, "does not say where \"cutoff\" comes from"));
 }
 
+TEST_F(BlockImport, DryRunWritesAndLogsNothing) {
+  cb::ImportOptions o;
+  o.dryRun = true;
+  o.mode = cb::ImportMode::Lenient;
+  auto rep =
+      import(std::string(kHeader) + "B1,,GRP,2026-05-01,2026-05-03,20,2026-04-10,definite,,\n"
+                                    "B2,,GRP,2026-06-01,2026-05-02,5,2026-05-01,tentative,,\n",
+             o);
+  EXPECT_FALSE(rep.written);
+  EXPECT_EQ(rep.log.added, 1);
+  EXPECT_EQ(rep.log.rejected, 1);
+  EXPECT_TRUE(store->blockRecords().empty());
+  EXPECT_TRUE(store->importLog().empty());
+}
+
 TEST(BlockStore, SchemaFiveStoreKeepsItsBlocksWithUnknownContractDate) {
   cbtest::TempDir dir;
   const fs::path path = dir / "old.curvebench";

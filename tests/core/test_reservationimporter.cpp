@@ -284,6 +284,55 @@ TEST(ReservationImporter, StrictIsTheDefaultAndWritesNothingOnAnyError) {
   EXPECT_EQ(log[0].added, 0);
 }
 
+TEST(ReservationImporter, DryRunChecksEverythingAndWritesNothing) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const auto in = tmp / "dry.csv";
+  cbtest::writeFile(in, kHeader +
+                            "D1,booked,2026-01-01,,2026-02-01,2026-02-02,1,DBL,Leisure,Web,90,,\n"
+                            "D2,booked,2026-01-01,,2026-02-01,2026-02-02,0,DBL,Leisure,Web,90,,\n"
+                            "D3,booked,2026-01-02,,2026-02-03,2026-02-04,1,DBL,Leisure,Web,95,,\n");
+  ImportOptions opt;
+  opt.mode = ImportMode::Lenient;
+  opt.dryRun = true;
+  opt.rejectsFile = tmp / "rejects.csv";
+  auto rep = cb::importReservations(*store, in, opt);
+  EXPECT_FALSE(rep.written);
+  EXPECT_EQ(rep.log.rowsRead, 3);
+  EXPECT_EQ(rep.log.added, 2); // what a real lenient import would add
+  EXPECT_EQ(rep.log.rejected, 1);
+  EXPECT_TRUE(hasFinding(rep.findings, "dry.csv:3:7: rooms is 0"));
+  EXPECT_EQ(store->reservationCount(), 0);
+  EXPECT_TRUE(store->importLog().empty());
+  EXPECT_FALSE(fs::exists(tmp / "rejects.csv"));
+  // A strict dry run of the same file: nothing logged either.
+  opt.mode = ImportMode::Strict;
+  rep = cb::importReservations(*store, in, opt);
+  EXPECT_FALSE(rep.written);
+  EXPECT_TRUE(store->importLog().empty());
+}
+
+TEST(ReservationImporter, ProfileTextIsParsedAndNamedByProfile) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const auto in = tmp / "other.csv";
+  cbtest::writeFile(in, "Id,State,Made,Cancel,In,Out,Qty,Seg,Price\n"
+                        "P1,booked,2026-01-01,,2026-02-01,2026-02-03,1,Leisure,90\n");
+  ImportOptions opt;
+  opt.profile = "my edit";
+  opt.profileText = R"({"name": "my edit", "fields": {
+    "reservation_id": {"column": "Id"}, "status": {"column": "State"},
+    "booked_on": {"column": "Made"}, "cancelled_on": {"column": "Cancel"},
+    "arrival": {"column": "In"}, "departure": {"column": "Out"}, "rooms": {"column": "Qty"},
+    "segment": {"column": "Seg"}, "rate": {"column": "Price"}}})";
+  auto rep = cb::importReservations(*store, in, opt);
+  ASSERT_TRUE(rep.written) << (rep.findings.empty() ? "" : rep.findings[0].toString());
+  ASSERT_TRUE(store->reservation("P1"));
+  EXPECT_EQ(store->reservation("P1")->departure.toIso(), "2026-02-03");
+  ASSERT_EQ(store->importLog().size(), 1u);
+  EXPECT_EQ(store->importLog()[0].profile, "my edit");
+}
+
 // ---- Re-import ----
 
 TEST(ReservationImporter, NewerExtractUpdatesByIdAndNeverDuplicates) {
