@@ -866,8 +866,7 @@ std::vector<EventNote> Store::events() const {
 
 std::vector<StoredEvent> Store::storedEvents() const {
   std::vector<StoredEvent> out;
-  auto st =
-      db_->prepare("SELECT id, starts_on, ends_on, label FROM events ORDER BY starts_on, id");
+  auto st = db_->prepare("SELECT id, starts_on, ends_on, label FROM events ORDER BY starts_on, id");
   while (st.step())
     out.push_back({st.columnInt64(0), {st.columnDate(1), st.columnDate(2), st.columnText(3)}});
   return out;

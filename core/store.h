@@ -141,7 +141,7 @@ public:
   std::vector<SalesClosure> closures() const; ///< ordered by night, then segment
   /// Adds an event note; returns its id. StoreError when `to` is before `from`.
   std::int64_t addEvent(const EventNote &e);
-  std::vector<EventNote> events() const; ///< ordered by first day, then in the order added
+  std::vector<EventNote> events() const;         ///< ordered by first day, then in the order added
   std::vector<StoredEvent> storedEvents() const; ///< the same order, with ids
   /// Writes the note with this id: replaces it, or puts a deleted note back under its old id (so
   /// an undone delete keeps its place among notes of the same first day).

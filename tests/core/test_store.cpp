@@ -706,8 +706,8 @@ TEST_F(StoreTest, EventNotesCanBeEditedDeletedAndPutBackUnderTheirId) {
   const auto earlyId = store->addEvent(early);
   EXPECT_NE(fairId, galaId);
   // First day, then the order added: the two notes of 12 March keep their order.
-  EXPECT_EQ(store->storedEvents(), (std::vector<cb::StoredEvent>{
-                                       {earlyId, early}, {fairId, fair}, {galaId, gala}}));
+  EXPECT_EQ(store->storedEvents(),
+            (std::vector<cb::StoredEvent>{{earlyId, early}, {fairId, fair}, {galaId, gala}}));
   const cb::EventNote longer{d(2025, 3, 11), d(2025, 3, 16), "Boat Fair"};
   store->putEvent(fairId, longer);
   EXPECT_EQ(store->events(), (std::vector<cb::EventNote>{early, longer, gala}));
@@ -715,10 +715,12 @@ TEST_F(StoreTest, EventNotesCanBeEditedDeletedAndPutBackUnderTheirId) {
   EXPECT_EQ(store->events(), (std::vector<cb::EventNote>{early, gala}));
   // Put back under its id after a later note of the same day: it sorts before it again.
   store->putEvent(fairId, fair);
-  EXPECT_EQ(store->storedEvents(), (std::vector<cb::StoredEvent>{
-                                       {earlyId, early}, {fairId, fair}, {galaId, gala}}));
+  EXPECT_EQ(store->storedEvents(),
+            (std::vector<cb::StoredEvent>{{earlyId, early}, {fairId, fair}, {galaId, gala}}));
   EXPECT_EQ(errorOf([&] { store->deleteEvent(999); }), "no event note with id 999");
-  EXPECT_EQ(errorOf([&] { store->putEvent(galaId, {d(2025, 3, 12), d(2025, 3, 11), "Gala"}); }),
+  EXPECT_EQ(errorOf([&] {
+              store->putEvent(galaId, {d(2025, 3, 12), d(2025, 3, 11), "Gala"});
+            }),
             "event \"Gala\" ends (2025-03-11) before it starts (2025-03-12)");
   EXPECT_EQ(store->events(), (std::vector<cb::EventNote>{early, fair, gala}));
 }
@@ -736,8 +738,8 @@ TEST_F(StoreTest, ReferenceCodesAreDeletedOnlyWhenNothingUsesThem) {
   }
   store->addGroupBlock({"B1", "", "CORP", d(2025, 3, 1), d(2025, 3, 2), 5, d(2025, 2, 1),
                         cb::BlockStatus::Definite});
-  store->addDenial({d(2025, 1, 1), d(2025, 3, 1), d(2025, 3, 2), 1, "CORP",
-                    cb::DenialKind::Denial});
+  store->addDenial(
+      {d(2025, 1, 1), d(2025, 3, 1), d(2025, 3, 2), 1, "CORP", cb::DenialKind::Denial});
   EXPECT_EQ(errorOf([&] { store->deleteSegment("CORP"); }),
             "segment CORP is still used (2 reservations, 1 group block, 1 denial); it cannot be "
             "deleted");
