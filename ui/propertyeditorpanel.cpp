@@ -22,6 +22,7 @@
 #include <QPainter>
 #include <QPixmap>
 #include <QPushButton>
+#include <QSettings>
 #include <QSpinBox>
 #include <QStackedWidget>
 #include <QStyledItemDelegate>
@@ -115,8 +116,17 @@ PropertyEditorPanel::PropertyEditorPanel(QWidget *parent)
   for (const char *name : {"General", "Capacity changes", "Room types", "Segments", "Channels",
                            "Season bands", "Costs", "Events & holiday map"})
     sections_->addItem(QString::fromUtf8(name));
-  connect(sections_, &QListWidget::currentRowChanged, pages_, &QStackedWidget::setCurrentIndex);
-  sections_->setCurrentRow(0);
+  sections_->setSpacing(3);
+  connect(sections_, &QListWidget::currentRowChanged, this, [this](int row) {
+    pages_->setCurrentIndex(row);
+    QSettings(QStringLiteral("Curvebench"), QStringLiteral("curvebench"))
+        .setValue(QStringLiteral("property/section"), row);
+  });
+  // The section last worked on, as the window remembers its screen.
+  const int last = QSettings(QStringLiteral("Curvebench"), QStringLiteral("curvebench"))
+                       .value(QStringLiteral("property/section"), 0)
+                       .toInt();
+  sections_->setCurrentRow(last >= 0 && last < pages_->count() ? last : 0);
 
   undoAction_->setShortcut(QKeySequence::Undo);
   redoAction_->setShortcuts(
@@ -137,14 +147,18 @@ PropertyEditorPanel::PropertyEditorPanel(QWidget *parent)
   updateActions();
 
   connect(model_, &PropertyEditModel::changed, this, [this] {
-    for (auto &[section, label] : messages_)
+    for (auto &[section, label] : messages_) {
       label->clear();
+      label->hide();
+    }
     refresh();
   });
   connect(model_, &PropertyEditModel::storeWritten, this, &PropertyEditorPanel::storeWritten);
   connect(model_, &PropertyEditModel::refused, this, [this](int section, const QString &msg) {
-    if (auto it = messages_.find(section); it != messages_.end())
+    if (auto it = messages_.find(section); it != messages_.end()) {
       it->second->setText(QStringLiteral("⚠ %1 — nothing was saved").arg(msg));
+      it->second->show();
+    }
     refresh(); // the refused value goes back to what the store holds
   });
 }
@@ -153,8 +167,10 @@ PropertyEditorPanel::~PropertyEditorPanel() = default;
 
 void PropertyEditorPanel::showSession(const WorkbenchSession &session) {
   summary_->showSession(session);
-  if (auto msg = model_->setStorePath(session.path()); !msg.isEmpty())
+  if (auto msg = model_->setStorePath(session.path()); !msg.isEmpty()) {
     messages_[Section::General]->setText(QStringLiteral("⚠ %1").arg(msg));
+    messages_[Section::General]->show();
+  }
 }
 
 void PropertyEditorPanel::showSection(int index) { sections_->setCurrentRow(index); }
@@ -187,8 +203,10 @@ void PropertyEditorPanel::updateActions() {
 }
 
 void PropertyEditorPanel::done(int section, const QString &refusal) {
-  if (refusal.isEmpty())
+  if (refusal.isEmpty()) {
     messages_[section]->clear();
+    messages_[section]->hide();
+  }
 }
 
 QWidget *PropertyEditorPanel::page(int section, const QString &title, const QString &hint,
@@ -209,6 +227,7 @@ QWidget *PropertyEditorPanel::page(int section, const QString &title, const QStr
   QPalette pal = msg->palette();
   pal.setColor(QPalette::WindowText, QColor(0xD5, 0x5E, 0x00)); // vermilion, with a ⚠ sign
   msg->setPalette(pal);
+  msg->hide();
   messages_[section] = msg;
   v->addWidget(msg);
   v->addWidget(content, 1);
@@ -223,9 +242,19 @@ QTableView *PropertyEditorPanel::table(PropertyTableModel *m) {
   view->setEditTriggers(QAbstractItemView::DoubleClicked | QAbstractItemView::EditKeyPressed |
                         QAbstractItemView::AnyKeyPressed);
   view->verticalHeader()->hide();
-  view->horizontalHeader()->setStretchLastSection(true);
+  view->verticalHeader()->setDefaultSectionSize(view->fontMetrics().height() + 8);
+  // The free-text column takes the spare width: reason, name or event label.
+  const int stretch = m->kind() == PropertyTableModel::CapacityChanges ||
+                              m->kind() == PropertyTableModel::Events ||
+                              m->kind() == PropertyTableModel::HolidayPairs
+                          ? 2
+                          : 1;
+  view->horizontalHeader()->setStretchLastSection(false);
+  connect(m, &QAbstractItemModel::modelReset, view, [view, stretch] {
+    view->resizeColumnsToContents();
+    view->horizontalHeader()->setSectionResizeMode(stretch, QHeaderView::Stretch);
+  });
   view->setAlternatingRowColors(true);
-  connect(m, &QAbstractItemModel::modelReset, view, [view] { view->resizeColumnsToContents(); });
   return view;
 }
 
@@ -236,7 +265,9 @@ QWidget *PropertyEditorPanel::buildGeneral() {
   auto *h = new QHBoxLayout(content);
   auto *box = new QGroupBox(QStringLiteral("Property"));
   auto *form = new QFormLayout(box);
+  form->setFieldGrowthPolicy(QFormLayout::FieldsStayAtSizeHint);
   name_ = new QLineEdit;
+  name_->setMinimumWidth(320);
   currency_ = new QLineEdit;
   currency_->setMaxLength(3);
   currency_->setMaximumWidth(80);
@@ -262,11 +293,17 @@ QWidget *PropertyEditorPanel::buildGeneral() {
       "counts as sold out when rooms sold come within the margin of capacity. STLY compares a "
       "night with last year's night of the same weekday (364 days earlier) or the same calendar "
       "date; event notes can pair moving holidays (Events & holiday map).")));
-  h->addWidget(box, 3);
+  auto *left = new QVBoxLayout;
+  left->addWidget(box);
+  left->addStretch();
+  h->addLayout(left, 3);
   auto *dataBox = new QGroupBox(QStringLiteral("The data"));
   auto *dv = new QVBoxLayout(dataBox);
   dv->addWidget(summary_);
-  h->addWidget(dataBox, 2);
+  auto *right = new QVBoxLayout;
+  right->addWidget(dataBox);
+  right->addStretch();
+  h->addLayout(right, 2);
 
   connect(name_, &QLineEdit::editingFinished, this, [this] {
     if (name_->text().trimmed() != q(model_->property().name))
@@ -460,6 +497,7 @@ QWidget *PropertyEditorPanel::buildSeasons() {
   auto *v = new QVBoxLayout(content);
   auto *box = new QGroupBox(QStringLiteral("Bands of unconstrained demand over capacity"));
   auto *form = new QFormLayout(box);
+  form->setFieldGrowthPolicy(QFormLayout::FieldsStayAtSizeHint);
   auto band = [] {
     auto *b = new QDoubleSpinBox;
     b->setRange(1, 200);
@@ -497,6 +535,7 @@ QWidget *PropertyEditorPanel::buildCosts() {
   auto *v = new QVBoxLayout(content);
   auto *box = new QGroupBox(QStringLiteral("Overbooking and groups"));
   auto *form = new QFormLayout(box);
+  form->setFieldGrowthPolicy(QFormLayout::FieldsStayAtSizeHint);
   walkCost_ = new QDoubleSpinBox;
   walkCost_->setRange(0, 1000000);
   walkCost_->setDecimals(2);
