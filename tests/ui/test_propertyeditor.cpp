@@ -13,8 +13,11 @@
 #include "ui/workbenchsession.h"
 
 #include <QAction>
+#include <QApplication>
+#include <QLineEdit>
 #include <QSignalSpy>
 #include <QStandardPaths>
+#include <QTableView>
 #include <QTest>
 #include <QUndoStack>
 
@@ -355,6 +358,33 @@ private slots:
     QVERIFY(!editor->model()->setSeasonBands(0.9, 0.5).isEmpty());
     QVERIFY(editor->message(cbui::PropertyEditModel::Seasons).contains(QStringLiteral("below")));
     QCOMPARE(reopen(path)->property().settings.seasons.peakFrom, 0.85);
+
+    // As a user: rename a segment in its table (the view's editor), then Ctrl+Z in the window.
+    editor->showSection(cbui::PropertyEditModel::Segments);
+    QTableView *view = nullptr;
+    for (auto *v : editor->findChildren<QTableView *>())
+      if (v->isVisible())
+        view = v;
+    QVERIFY(view);
+    QVERIFY(QTest::qWaitForWindowActive(&w));
+    const QModelIndex name = view->model()->index(0, 1);
+    QCOMPARE(name.data().toString(), QStringLiteral("Corporate"));
+    view->setFocus();
+    view->setCurrentIndex(name);
+    view->edit(name);
+    auto *line = qobject_cast<QLineEdit *>(QApplication::focusWidget());
+    QVERIFY(line);
+    line->selectAll();
+    QTest::keyClicks(line, QStringLiteral("Corporate accounts"));
+    QTest::keyClick(line, Qt::Key_Return);
+    // The delegate commits on Return through a queued call.
+    QTRY_COMPARE(reopen(path)->segments().front().name, std::string("Corporate accounts"));
+    QCOMPARE(view->model()->index(0, 1).data().toString(), QStringLiteral("Corporate accounts"));
+    QTest::keySequence(&w, QKeySequence::Undo);
+    QCOMPARE(reopen(path)->segments().front().name, std::string("Corporate"));
+    QTest::keySequence(&w, QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_Z));
+    QCOMPARE(reopen(path)->segments().front().name, std::string("Corporate accounts"));
+    QVERIFY(loaded.wait(20000)); // the reload after the edits
   }
 };
 
