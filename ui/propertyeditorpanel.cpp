@@ -352,6 +352,11 @@ QWidget *PropertyEditorPanel::buildCapacity() {
   row->addWidget(add);
   row->addWidget(remove);
   v->addLayout(row);
+  // A new change starts from the base capacity, not 0 rooms (which would close the hotel).
+  connect(model_, &PropertyEditModel::changed, rooms, [this, rooms] {
+    if (rooms->value() == 0)
+      rooms->setValue(model_->property().capacity);
+  });
   connect(add, &QPushButton::clicked, this, [this, from, rooms, reason] {
     const QString r = model_->addCapacityChange(from->date(), rooms->value(), reason->text());
     done(Section::Capacity, r);
