@@ -840,14 +840,20 @@ std::vector<SalesClosure> Store::closures() const {
   return out;
 }
 
-void Store::addEvent(const EventNote &e) {
+std::int64_t Store::addEvent(const EventNote &e) {
+  if (e.to < e.from)
+    throw StoreError(fmt::format("event \"{}\" ends ({}) before it starts ({})", e.label,
+                                 e.to.toIso(), e.from.toIso()));
+  std::int64_t id = 0;
   writeTransaction(*db_, [&] {
     auto st = db_->prepare("INSERT INTO events (starts_on, ends_on, label) VALUES (?1, ?2, ?3)");
     st.bind(1, e.from);
     st.bind(2, e.to);
     st.bind(3, e.label);
     st.step();
+    id = db_->lastInsertRowid();
   });
+  return id;
 }
 
 std::vector<EventNote> Store::events() const {
@@ -856,6 +862,95 @@ std::vector<EventNote> Store::events() const {
   while (st.step())
     out.push_back({st.columnDate(0), st.columnDate(1), st.columnText(2)});
   return out;
+}
+
+std::vector<StoredEvent> Store::storedEvents() const {
+  std::vector<StoredEvent> out;
+  auto st = db_->prepare("SELECT id, starts_on, ends_on, label FROM events ORDER BY starts_on, id");
+  while (st.step())
+    out.push_back({st.columnInt64(0), {st.columnDate(1), st.columnDate(2), st.columnText(3)}});
+  return out;
+}
+
+void Store::putEvent(std::int64_t id, const EventNote &e) {
+  if (e.to < e.from)
+    throw StoreError(fmt::format("event \"{}\" ends ({}) before it starts ({})", e.label,
+                                 e.to.toIso(), e.from.toIso()));
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare("INSERT INTO events (id, starts_on, ends_on, label) "
+                           "VALUES (?1, ?2, ?3, ?4) ON CONFLICT (id) DO UPDATE SET "
+                           "starts_on = excluded.starts_on, ends_on = excluded.ends_on, "
+                           "label = excluded.label");
+    st.bind(1, id);
+    st.bind(2, e.from);
+    st.bind(3, e.to);
+    st.bind(4, e.label);
+    st.step();
+  });
+}
+
+void Store::deleteEvent(std::int64_t id) {
+  writeTransaction(*db_, [&] {
+    auto st = db_->prepare("DELETE FROM events WHERE id = ?1");
+    st.bind(1, id);
+    st.step();
+    if (db_->changes() == 0)
+      throw StoreError(fmt::format("no event note with id {}", id));
+  });
+}
+
+namespace {
+
+// Where a code is still used: "3 reservations, 1 group block", or empty when nowhere.
+std::string codeUses(SqliteDb &db, const std::string &code,
+                     std::initializer_list<std::pair<const char *, const char *>> uses) {
+  std::string out;
+  for (const auto &[where, what] : uses) {
+    auto st = db.prepare(fmt::format("SELECT count(*) FROM {}", where));
+    st.bind(1, code);
+    st.step();
+    const std::int64_t n = st.columnInt64(0);
+    if (n == 0)
+      continue;
+    out += fmt::format("{}{} {}{}", out.empty() ? "" : ", ", n, what, n == 1 ? "" : "s");
+  }
+  return out;
+}
+
+void deleteCode(SqliteDb &db, const char *table, const char *kind, const std::string &code,
+                std::initializer_list<std::pair<const char *, const char *>> uses) {
+  writeTransaction(db, [&] {
+    if (auto used = codeUses(db, code, uses); !used.empty())
+      throw StoreError(
+          fmt::format("{} {} is still used ({}); it cannot be deleted", kind, code, used));
+    auto st = db.prepare(fmt::format("DELETE FROM {} WHERE code = ?1", table));
+    st.bind(1, code);
+    st.step();
+    if (db.changes() == 0)
+      throw StoreError(fmt::format("there is no {} {}", kind, code));
+  });
+}
+
+} // namespace
+
+void Store::deleteRoomType(const std::string &code) {
+  deleteCode(*db_, "room_types", "room type", code,
+             {{"reservations WHERE room_type = ?1", "reservation"},
+              {"group_blocks WHERE room_type = ?1", "group block"}});
+}
+
+void Store::deleteSegment(const std::string &code) {
+  deleteCode(*db_, "segments", "segment", code,
+             {{"reservations WHERE segment = ?1", "reservation"},
+              {"group_blocks WHERE segment = ?1", "group block"},
+              {"denials WHERE segment = ?1", "denial"},
+              {"sales_closures WHERE segment = ?1", "sales closure"},
+              {"forecast_overrides WHERE segment = ?1", "forecast override"}});
+}
+
+void Store::deleteChannel(const std::string &code) {
+  deleteCode(*db_, "channels", "channel", code,
+             {{"reservations WHERE channel = ?1", "reservation"}});
 }
 
 // ---- import log ------------------------------------------------------------------------------

@@ -43,6 +43,14 @@ struct ImportLogEntry {
   std::string outcome;
 };
 
+/// An event note with its row id, so one note can be edited or deleted (core/holidaymap.h reads
+/// the notes; the id is what tells two notes with the same dates and label apart).
+struct StoredEvent {
+  std::int64_t id = 0;
+  EventNote note;
+  bool operator==(const StoredEvent &) const = default;
+};
+
 /// Outcome of writing one reservation.
 enum class UpsertResult { Added, Updated, Unchanged };
 
@@ -104,6 +112,12 @@ public:
   void upsertRoomType(const RoomType &r);
   void upsertSegment(const Segment &s);
   void upsertChannel(const Channel &c);
+  /// Deletes a room type, segment or channel. Refused (StoreError naming what uses it, nothing
+  /// deleted) while a reservation, block, denial, closure or forecast override still carries the
+  /// code; an unknown code is refused too.
+  void deleteRoomType(const std::string &code);
+  void deleteSegment(const std::string &code);
+  void deleteChannel(const std::string &code);
 
   // Reservations. upsertReservation must be called inside a Transaction; it creates missing
   // segment / channel / room-type rows (code only) so foreign keys hold. importId is the
@@ -125,8 +139,14 @@ public:
   std::vector<Denial> denials() const;        ///< in the order added
   void addClosure(const SalesClosure &c);     ///< the segment row is created if missing
   std::vector<SalesClosure> closures() const; ///< ordered by night, then segment
-  void addEvent(const EventNote &e);
-  std::vector<EventNote> events() const; ///< ordered by first day, then in the order added
+  /// Adds an event note; returns its id. StoreError when `to` is before `from`.
+  std::int64_t addEvent(const EventNote &e);
+  std::vector<EventNote> events() const;         ///< ordered by first day, then in the order added
+  std::vector<StoredEvent> storedEvents() const; ///< the same order, with ids
+  /// Writes the note with this id: replaces it, or puts a deleted note back under its old id (so
+  /// an undone delete keeps its place among notes of the same first day).
+  void putEvent(std::int64_t id, const EventNote &e);
+  void deleteEvent(std::int64_t id); ///< StoreError when there is no such note
 
   // Import log. beginImport() inserts a row and returns its id (inside the caller's
   // transaction, so a rolled-back strict import leaves no row); finishImport() fills it in.

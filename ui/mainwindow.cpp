@@ -12,6 +12,7 @@
 #include "ui/horizonpanel.h"
 #include "ui/importjob.h"
 #include "ui/morningbrief.h"
+#include "ui/propertyeditorpanel.h"
 #include "ui/propertysummarypanel.h"
 #include "ui/segmentcomparepanel.h"
 #include "ui/workbenchsession.h"
@@ -79,12 +80,12 @@ LoadResult loadSession(const std::filesystem::path &store, bool buildSampleFirst
 
 MainWindow::MainWindow(QWidget *parent)
     : QMainWindow(parent), tabs_(new QTabWidget), horizon_(new HorizonPanel),
-      summary_(new PropertySummaryPanel), compare_(new SegmentComparePanel),
-      yearMap_(new YearMapPanel), dateStudy_(new DateStudyPanel), accuracy_(new AccuracyPanel),
-      data_(new DataPanel), asOfEdit_(new QDateEdit), asOfNote_(new QLabel),
-      progress_(new QProgressBar), findingsDock_(new QDockWidget(QStringLiteral("Findings"))),
-      findings_(new FindingsPanel), findingsButton_(new QToolButton),
-      cancelImport_(new QToolButton) {
+      propertyEditor_(new PropertyEditorPanel), summary_(propertyEditor_->summaryPanel()),
+      compare_(new SegmentComparePanel), yearMap_(new YearMapPanel), dateStudy_(new DateStudyPanel),
+      accuracy_(new AccuracyPanel), data_(new DataPanel), asOfEdit_(new QDateEdit),
+      asOfNote_(new QLabel), progress_(new QProgressBar),
+      findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new FindingsPanel),
+      findingsButton_(new QToolButton), cancelImport_(new QToolButton) {
   setWindowTitle(QStringLiteral("Curvebench"));
   setAcceptDrops(true);
 
@@ -114,7 +115,7 @@ MainWindow::MainWindow(QWidget *parent)
   tabs_->addTab(yearMap_, QStringLiteral("Year Map"));
   tabs_->addTab(accuracy_, QStringLiteral("Accuracy"));
   tabs_->addTab(data_, QStringLiteral("Data"));
-  tabs_->addTab(summary_, QStringLiteral("Property"));
+  tabs_->addTab(propertyEditor_, QStringLiteral("Property"));
   const char *tips[] = {
       "The next nights at a glance",
       "One night in depth",
@@ -122,7 +123,7 @@ MainWindow::MainWindow(QWidget *parent)
       "A whole year of nights by season class or demand",
       "How well each forecast method did on this property",
       "Import files step by step, the import log and the data's health",
-      "The property and its data"};
+      "The property: capacity, room types, segments, channels, seasons, costs, events"};
   for (int i = 0; i < tabs_->count(); ++i)
     tabs_->setTabToolTip(i,
                          QStringLiteral("%1 (Ctrl+%2)").arg(QString::fromUtf8(tips[i])).arg(i + 1));
@@ -192,6 +193,12 @@ MainWindow::MainWindow(QWidget *parent)
     if (session_ && fromQDate(date) != session_->readingDate())
       setReadingDate(fromQDate(date));
   });
+  // A property edit changes what every screen computes: reload once the edits pause.
+  auto *reload = new QTimer(this);
+  reload->setSingleShot(true);
+  reload->setInterval(700);
+  connect(reload, &QTimer::timeout, this, &MainWindow::reloadAfterEdit);
+  connect(propertyEditor_, &PropertyEditorPanel::storeWritten, reload, qOverload<>(&QTimer::start));
   connect(tabs_, &QTabWidget::currentChanged, this, [this](int i) {
     // By name: an index would point at another screen once screens are added.
     settings().setValue(QStringLiteral("window/screenName"), screenNames().value(i));
@@ -261,6 +268,10 @@ void MainWindow::buildMenus() {
   QAction *quit = file->addAction(QStringLiteral("&Quit"));
   quit->setShortcut(QKeySequence::Quit);
   connect(quit, &QAction::triggered, this, &QWidget::close);
+
+  QMenu *edit = menuBar()->addMenu(QStringLiteral("&Edit"));
+  edit->addAction(propertyEditor_->undoAction()); // the Property screen's edits, while shown
+  edit->addAction(propertyEditor_->redoAction());
 
   QMenu *view = menuBar()->addMenu(QStringLiteral("&View"));
   for (int i = 0; i < tabs_->count(); ++i)
@@ -381,6 +392,23 @@ void MainWindow::startLoad(const std::filesystem::path &store, bool buildSampleF
       [store, buildSampleFirst] { return loadSession(store, buildSampleFirst); }));
 }
 
+void MainWindow::reloadAfterEdit() {
+  if (!session_)
+    return;
+  const cb::Date asOf = session_->readingDate();
+  const QDate night = night_;
+  connect(
+      this, &MainWindow::sessionLoaded, this,
+      [this, asOf, night] {
+        if (session_->readingDate() != asOf)
+          setReadingDate(asOf);
+        if (night.isValid())
+          showNight(fromQDate(night));
+      },
+      Qt::SingleShotConnection);
+  startLoad(session_->path(), false, QStringLiteral("Property saved; recomputing the screens …"));
+}
+
 void MainWindow::importCsv(const std::filesystem::path &file) {
   if (!session_ || importing_) {
     statusBar()->showMessage(session_ ? QStringLiteral("An import is already running")
@@ -441,7 +469,7 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   accuracy_->setSession(nullptr);
   session_ = std::move(session);
   healthChecked_ = false;
-  summary_->showSession(*session_);
+  propertyEditor_->showSession(*session_);
   const QString path = QString::fromStdString(session_->path().string());
   setWindowTitle(
       QStringLiteral("Curvebench — %1").arg(QString::fromStdString(session_->property().name)));

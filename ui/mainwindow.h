@@ -33,6 +33,7 @@ namespace cbui {
 class WorkbenchSession;
 class DateStudyPanel;
 class PropertySummaryPanel;
+class PropertyEditorPanel;
 class HorizonPanel;
 class SegmentComparePanel;
 class YearMapPanel;
@@ -79,6 +80,7 @@ public:
   const WorkbenchSession *session() const { return session_.get(); }
   DateStudyPanel *dateStudy() const { return dateStudy_; }
   PropertySummaryPanel *summaryPanel() const { return summary_; }
+  PropertyEditorPanel *propertyEditor() const { return propertyEditor_; }
   HorizonPanel *horizonPanel() const { return horizon_; }
   SegmentComparePanel *segmentComparePanel() const { return compare_; }
   YearMapPanel *yearMapPanel() const { return yearMap_; }
@@ -111,10 +113,14 @@ private:
   /// Segment Compare and Year Map compute only when shown: gives the session to the one on
   /// screen when it has not seen the current session / reading date yet.
   void refreshLazyScreens();
+  /// After a property edit: reloads the session in the background, keeping the reading date and
+  /// the studied night (capacity and settings change forecasts).
+  void reloadAfterEdit();
 
   std::unique_ptr<WorkbenchSession> session_;
   QTabWidget *tabs_;
   HorizonPanel *horizon_;
+  PropertyEditorPanel *propertyEditor_;
   PropertySummaryPanel *summary_;
   SegmentComparePanel *compare_;
   YearMapPanel *yearMap_;

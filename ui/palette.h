@@ -4,11 +4,30 @@
 
 #include <QColor>
 
+#include <array>
+
 namespace cbui::palette {
 
 inline QColor thisYear() { return QColor(0x00, 0x72, 0xB2); }    // blue
 inline QColor lastYear() { return QColor(0xE6, 0x9F, 0x00); }    // orange
 inline QColor capacity() { return QColor(0x00, 0x00, 0x00); }    // black
 inline QColor readingDate() { return QColor(0xCC, 0x79, 0xA7); } // reddish purple
+
+/// A colour a segment can be given: the Okabe–Ito colours with plain names. Yellow is left out
+/// because it fades on white (as in the sample property, core/simulator.cpp).
+struct NamedColour {
+  const char *hex; ///< "#rrggbb"
+  const char *name;
+};
+inline const std::array<NamedColour, 7> &segmentColours() {
+  static const std::array<NamedColour, 7> colours{{{"#0072B2", "Blue"},
+                                                   {"#E69F00", "Orange"},
+                                                   {"#009E73", "Bluish green"},
+                                                   {"#CC79A7", "Reddish purple"},
+                                                   {"#56B4E9", "Sky blue"},
+                                                   {"#D55E00", "Vermilion"},
+                                                   {"#000000", "Black"}}};
+  return colours;
+}
 
 } // namespace cbui::palette

@@ -694,4 +694,66 @@ TEST_F(StoreTest, SchemaFourStoreGainsTheSpreadColumn) {
   EXPECT_TRUE(fs::exists(path.string() + ".v4.bak"));
 }
 
+// ---- editing reference data (the Property screen) ----------------------------------------------
+
+TEST_F(StoreTest, EventNotesCanBeEditedDeletedAndPutBackUnderTheirId) {
+  auto store = Store::create(path, sampleProperty());
+  const cb::EventNote fair{d(2025, 3, 12), d(2025, 3, 15), "Boat Fair"};
+  const cb::EventNote gala{d(2025, 3, 12), d(2025, 3, 12), "Gala"};
+  const cb::EventNote early{d(2025, 1, 5), d(2025, 1, 6), "Ice race"};
+  const auto fairId = store->addEvent(fair);
+  const auto galaId = store->addEvent(gala);
+  const auto earlyId = store->addEvent(early);
+  EXPECT_NE(fairId, galaId);
+  // First day, then the order added: the two notes of 12 March keep their order.
+  EXPECT_EQ(store->storedEvents(),
+            (std::vector<cb::StoredEvent>{{earlyId, early}, {fairId, fair}, {galaId, gala}}));
+  const cb::EventNote longer{d(2025, 3, 11), d(2025, 3, 16), "Boat Fair"};
+  store->putEvent(fairId, longer);
+  EXPECT_EQ(store->events(), (std::vector<cb::EventNote>{early, longer, gala}));
+  store->deleteEvent(fairId);
+  EXPECT_EQ(store->events(), (std::vector<cb::EventNote>{early, gala}));
+  // Put back under its id after a later note of the same day: it sorts before it again.
+  store->putEvent(fairId, fair);
+  EXPECT_EQ(store->storedEvents(),
+            (std::vector<cb::StoredEvent>{{earlyId, early}, {fairId, fair}, {galaId, gala}}));
+  EXPECT_EQ(errorOf([&] { store->deleteEvent(999); }), "no event note with id 999");
+  EXPECT_EQ(errorOf([&] {
+              store->putEvent(galaId, {d(2025, 3, 12), d(2025, 3, 11), "Gala"});
+            }),
+            "event \"Gala\" ends (2025-03-11) before it starts (2025-03-12)");
+  EXPECT_EQ(store->events(), (std::vector<cb::EventNote>{early, fair, gala}));
+}
+
+TEST_F(StoreTest, ReferenceCodesAreDeletedOnlyWhenNothingUsesThem) {
+  auto store = Store::create(path, sampleProperty());
+  store->upsertSegment({"SPARE", "Unused segment", 5, "#009E73"});
+  store->upsertRoomType({"SUITE", "Suite", 4});
+  store->upsertChannel({"FAX", "Fax"});
+  {
+    Store::Transaction tx(*store);
+    store->upsertReservation(makeReservation("A1"), 0); // DBL, CORP, DIRECT
+    store->upsertReservation(makeReservation("A2"), 0);
+    tx.commit();
+  }
+  store->addGroupBlock({"B1", "", "CORP", d(2025, 3, 1), d(2025, 3, 2), 5, d(2025, 2, 1),
+                        cb::BlockStatus::Definite});
+  store->addDenial(
+      {d(2025, 1, 1), d(2025, 3, 1), d(2025, 3, 2), 1, "CORP", cb::DenialKind::Denial});
+  EXPECT_EQ(errorOf([&] { store->deleteSegment("CORP"); }),
+            "segment CORP is still used (2 reservations, 1 group block, 1 denial); it cannot be "
+            "deleted");
+  EXPECT_EQ(errorOf([&] { store->deleteRoomType("DBL"); }),
+            "room type DBL is still used (2 reservations); it cannot be deleted");
+  EXPECT_EQ(errorOf([&] { store->deleteChannel("DIRECT"); }),
+            "channel DIRECT is still used (2 reservations); it cannot be deleted");
+  EXPECT_EQ(errorOf([&] { store->deleteChannel("TELEX"); }), "there is no channel TELEX");
+  store->deleteSegment("SPARE");
+  store->deleteRoomType("SUITE");
+  store->deleteChannel("FAX");
+  EXPECT_EQ(store->segments(), (std::vector<cb::Segment>{{"CORP", "", 0, ""}}));
+  EXPECT_EQ(store->roomTypes(), (std::vector<cb::RoomType>{{"DBL", "", 0}}));
+  EXPECT_EQ(store->channels(), (std::vector<cb::Channel>{{"DIRECT", ""}}));
+}
+
 } // namespace
