@@ -32,7 +32,7 @@ int main(int argc, char **argv) {
   parser.addOption(shot);
   QCommandLineOption screen(QStringLiteral("screen"),
                             QStringLiteral("Screen to show: horizon, date-study, segment-compare, "
-                                           "year-map, accuracy or property"),
+                                           "year-map, accuracy, group-offer or property"),
                             QStringLiteral("NAME"));
   parser.addOption(screen);
   QCommandLineOption size(QStringLiteral("size"),
@@ -52,10 +52,11 @@ int main(int argc, char **argv) {
     window.showScreen(name == QLatin1String("date-study") ? cbui::MainWindow::DateStudyScreen
                       : name == QLatin1String("segment-compare")
                           ? cbui::MainWindow::SegmentCompareScreen
-                      : name == QLatin1String("year-map") ? cbui::MainWindow::YearMapScreen
-                      : name == QLatin1String("accuracy") ? cbui::MainWindow::AccuracyScreen
-                      : name == QLatin1String("property") ? cbui::MainWindow::PropertyScreen
-                                                          : cbui::MainWindow::HorizonScreen);
+                      : name == QLatin1String("year-map")    ? cbui::MainWindow::YearMapScreen
+                      : name == QLatin1String("accuracy")    ? cbui::MainWindow::AccuracyScreen
+                      : name == QLatin1String("group-offer") ? cbui::MainWindow::GroupOfferScreen
+                      : name == QLatin1String("property")    ? cbui::MainWindow::PropertyScreen
+                                                             : cbui::MainWindow::HorizonScreen);
   }
   window.show();
 

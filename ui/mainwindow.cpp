@@ -8,6 +8,7 @@
 #include "ui/accuracypanel.h"
 #include "ui/datestudypanel.h"
 #include "ui/findingspanel.h"
+#include "ui/groupofferpanel.h"
 #include "ui/horizonpanel.h"
 #include "ui/morningbrief.h"
 #include "ui/propertysummarypanel.h"
@@ -154,6 +155,8 @@ MainWindow::MainWindow(QWidget *parent)
   tabs_->addTab(compare_, QStringLiteral("Segment Compare"));
   tabs_->addTab(yearMap_, QStringLiteral("Year Map"));
   tabs_->addTab(accuracy_, QStringLiteral("Accuracy"));
+  groupOffer_ = new GroupOfferPanel;
+  tabs_->addTab(groupOffer_, QStringLiteral("Group offer"));
   tabs_->addTab(summary_, QStringLiteral("Property"));
   const char *tips[] = {
       "The next nights at a glance",
@@ -161,6 +164,7 @@ MainWindow::MainWindow(QWidget *parent)
       "Segments side by side: curves, booking window, rate by lead, this year vs last year",
       "A whole year of nights by season class or demand",
       "How well each forecast method did on this property",
+      "A group's offer against the transient business it would displace, night by night",
       "The property and its data"};
   for (int i = 0; i < tabs_->count(); ++i)
     tabs_->setTabToolTip(i,
@@ -245,6 +249,7 @@ MainWindow::~MainWindow() {
   horizon_->setSession(nullptr);
   compare_->setSession(nullptr);
   yearMap_->setSession(nullptr);
+  groupOffer_->setSession(nullptr);
 }
 
 void MainWindow::refreshLazyScreens() {
@@ -500,6 +505,7 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   compareStale_ = yearMapStale_ = true;
   refreshLazyScreens();
   accuracy_->setSession(session_.get());
+  groupOffer_->setSession(session_.get());
   showNight(session_->defaultNight());
   emit sessionLoaded();
 }
@@ -534,6 +540,7 @@ bool MainWindow::setReadingDate(cb::Date date) {
   compareStale_ = yearMapStale_ = true;
   refreshLazyScreens();
   accuracy_->setSession(session_.get());
+  groupOffer_->setSession(session_.get());
   if (night_.isValid())
     showNight(fromQDate(night_));
   return true;

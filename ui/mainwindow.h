@@ -36,6 +36,7 @@ class SegmentComparePanel;
 class YearMapPanel;
 class FindingsPanel;
 class AccuracyPanel;
+class GroupOfferPanel;
 
 /// Cancel flag and progress of a background import (shared with the worker).
 struct ImportControl {
@@ -52,7 +53,8 @@ public:
     SegmentCompareScreen = 2,
     YearMapScreen = 3,
     AccuracyScreen = 4,
-    PropertyScreen = 5
+    GroupOfferScreen = 5,
+    PropertyScreen = 6
   };
 
   explicit MainWindow(QWidget *parent = nullptr);
@@ -81,6 +83,7 @@ public:
   YearMapPanel *yearMapPanel() const { return yearMap_; }
   FindingsPanel *findingsPanel() const { return findings_; }
   AccuracyPanel *accuracyPanel() const { return accuracy_; }
+  GroupOfferPanel *groupOfferPanel() const { return groupOffer_; }
   /// Cancels the running import (as its Cancel button does); nothing is written.
   void cancelImport();
   /// The night Date Study shows.
@@ -117,6 +120,7 @@ private:
   bool compareStale_ = true, yearMapStale_ = true;
   DateStudyPanel *dateStudy_;
   AccuracyPanel *accuracy_;
+  GroupOfferPanel *groupOffer_ = nullptr;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;
   QDate night_; ///< the night Date Study shows

@@ -11,4 +11,10 @@ inline QColor lastYear() { return QColor(0xE6, 0x9F, 0x00); }    // orange
 inline QColor capacity() { return QColor(0x00, 0x00, 0x00); }    // black
 inline QColor readingDate() { return QColor(0xCC, 0x79, 0xA7); } // reddish purple
 
+// Group offer chart.
+inline QColor transientDemand() { return QColor(0x00, 0x72, 0xB2); } // blue
+inline QColor groupsHeld() { return QColor(0x99, 0x99, 0x99); }      // grey
+inline QColor groupOffer() { return QColor(0xD5, 0x5E, 0x00); }      // vermillion
+inline QColor displaced() { return QColor(0xCC, 0x79, 0xA7); }       // reddish purple
+
 } // namespace cbui::palette
