@@ -1,8 +1,9 @@
 // Group offer, offscreen, on the sample property: the screen's check gives the same per-night
 // displaced rooms, verdicts and break-even rate as cb::displacementFromData called directly with
-// the CLI's options (what `curvebench displace` prints); an invalid offer (0 rooms, a night on
-// the reading date, a negative rate, no nights) gives a message and no result; the panel
-// evaluates in the background, shows the caution, exports, cancels; the main window has the tab.
+// the CLI's options, and as `curvebench displace` prints for the same offer (run as a process); an
+// invalid offer (0 rooms, a night on the reading date, a negative rate, no nights) gives a message
+// and no result; the panel evaluates in the background, shows the caution, exports, cancels; the
+// main window has the tab.
 #include "core/advice.h"
 #include "core/displacement.h"
 #include "core/samplestore.h"
@@ -19,6 +20,7 @@
 #include <QAbstractItemModel>
 #include <QCheckBox>
 #include <QFile>
+#include <QProcess>
 #include <QSignalSpy>
 #include <QStandardItemModel>
 #include <QStandardPaths>
@@ -124,6 +126,69 @@ private slots:
     QCOMPARE(table.index(1, cbui::ColGroupValue).data().toString(), QStringLiteral("4,280.00"));
     QVERIFY(cbui::offerTotals(r).contains(QStringLiteral("Group value EUR 11,770.00")));
     QVERIFY(cbui::breakEvenText(r).startsWith(QStringLiteral("Break-even group rate: EUR ")));
+  }
+
+  void sameNumbersAsTheCli() {
+    const cb::Date asOf = session_->readingDate();
+    const cbui::GroupOffer offer = sampleOffer(asOf);
+    const cbui::GroupOfferResult r = cbui::evaluateGroupOffer(*session_, offer);
+    QVERIFY(r.ok());
+    cbtest::TempDir tmp;
+    const QString csv = QString::fromStdString((tmp / "offer.csv").string());
+    {
+      QFile f(csv);
+      QVERIFY(f.open(QIODevice::WriteOnly));
+      f.write("night,rooms,rate,other_revenue,cost\n");
+      for (const cb::OfferNight &n : offer.offerNights())
+        f.write(QStringLiteral("%1,%2,%3,%4,%5\n")
+                    .arg(QString::fromStdString(n.night.toIso()))
+                    .arg(n.rooms)
+                    .arg(n.rate)
+                    .arg(n.otherRevenue)
+                    .arg(n.cost)
+                    .toUtf8());
+    }
+    QProcess cli;
+    cli.start(QStringLiteral(CURVEBENCH_CLI),
+              {QStringLiteral("displace"), QString::fromStdString(session_->path().string()),
+               QStringLiteral("--offer"), csv, QStringLiteral("--as-of"),
+               QString::fromStdString(asOf.toIso())});
+    QVERIFY(cli.waitForFinished(120000));
+    QCOMPARE(cli.exitCode(), 0);
+    const QStringList lines =
+        QString::fromUtf8(cli.readAllStandardOutput()).split(QLatin1Char('\n'), Qt::SkipEmptyParts);
+    const QString notes = QString::fromUtf8(cli.readAllStandardError());
+    // Header, then one line per night: the CLI's night, kind, displaced_rooms (col 15), net
+    // (col 17) and verdict (col 18), each to its two printed decimals.
+    QCOMPARE(lines.size(), int(r.displacement.nights.size()) + 1);
+    const QStringList head = lines[0].split(QLatin1Char(','));
+    QCOMPARE(head[14], QStringLiteral("displaced_rooms"));
+    QCOMPARE(head[16], QStringLiteral("net"));
+    QCOMPARE(head[17], QStringLiteral("verdict"));
+    const QString cliVerdicts[] = {QStringLiteral("group pays"),
+                                   QStringLiteral("displaces more than it pays"),
+                                   QStringLiteral("loses"), QStringLiteral("even")};
+    const QString ourVerdicts[] = {
+        QStringLiteral("Group pays"), QStringLiteral("Displaces more than it pays"),
+        QStringLiteral("Shoulder: loses"), QStringLiteral("Shoulder: no loss")};
+    for (std::size_t i = 0; i < r.displacement.nights.size(); ++i) {
+      const cb::DisplacementNight &n = r.displacement.nights[i];
+      const QStringList f = lines[int(i) + 1].split(QLatin1Char(','));
+      QCOMPARE(f[0], QString::fromStdString(n.night.toIso()));
+      QCOMPARE(f[2], n.shoulder ? QStringLiteral("shoulder") : QStringLiteral("offer"));
+      QCOMPARE(f[14], QString::number(n.displacedRooms, 'f', 2));
+      QCOMPARE(f[16], QString::number(n.net, 'f', 2));
+      int k = 0;
+      while (k < 4 && cliVerdicts[k] != f[17])
+        ++k;
+      QVERIFY2(k < 4, qPrintable(f[17]));
+      QCOMPARE(cbui::nightVerdict(n), ourVerdicts[k]);
+    }
+    QVERIFY2(notes.contains(QStringLiteral("break-even group rate: %1 per room-night")
+                                .arg(*r.displacement.breakEvenRate, 0, 'f', 2)),
+             qPrintable(notes));
+    QVERIFY(notes.contains(
+        QStringLiteral("group value %1,").arg(r.displacement.groupValue, 0, 'f', 2)));
   }
 
   void invalidOffersGiveAMessageAndNoResult() {
