@@ -2,17 +2,25 @@
 
 #include "ui/palette.h"
 
-#include <QVBoxLayout>
+#include <QLabel>
+#include <QStackedLayout>
 #include <qcustomplot.h>
 
 #include <algorithm>
 
 namespace cbui {
 
-GroupOfferChart::GroupOfferChart(QWidget *parent) : QWidget(parent), plot_(new QCustomPlot) {
-  auto *lay = new QVBoxLayout(this);
-  lay->setContentsMargins(0, 0, 0, 0);
-  lay->addWidget(plot_);
+GroupOfferChart::GroupOfferChart(QWidget *parent)
+    : QWidget(parent), plot_(new QCustomPlot),
+      empty_(new QLabel(QStringLiteral("No offer checked yet: the chart shows the nights of "
+                                       "the last offer evaluated."))) {
+  // One or the other, with the same geometry (the plot keeps its size while the note shows).
+  stack_ = new QStackedLayout(this);
+  stack_->setContentsMargins(0, 0, 0, 0);
+  stack_->addWidget(plot_);
+  empty_->setAlignment(Qt::AlignCenter);
+  empty_->setStyleSheet(QStringLiteral("color: #666666"));
+  stack_->addWidget(empty_);
   plot_->yAxis->setLabel(QStringLiteral("Rooms"));
   plot_->yAxis2->setLabel(QStringLiteral("Displaced rooms"));
   plot_->yAxis2->setVisible(true);
@@ -34,10 +42,10 @@ void GroupOfferChart::setData(const GroupOfferChartData &d) {
   plot_->clearPlottables();
   plot_->clearItems();
   const int n = static_cast<int>(d.labels.size());
-  if (n == 0) {
-    plot_->replot();
+  // No offer checked: a note instead of empty axes.
+  stack_->setCurrentWidget(n > 0 ? static_cast<QWidget *>(plot_) : empty_);
+  if (n == 0)
     return;
-  }
   QVector<double> keys;
   for (int i = 0; i < n; ++i)
     keys << i;

@@ -8,6 +8,8 @@
 #include <QWidget>
 
 class QCustomPlot;
+class QLabel;
+class QStackedLayout;
 
 namespace cbui {
 
@@ -29,6 +31,8 @@ public:
 
 private:
   QCustomPlot *plot_;
+  QLabel *empty_;
+  QStackedLayout *stack_;
 };
 
 } // namespace cbui

@@ -180,7 +180,7 @@ GroupOfferResult evaluateGroupOffer(const WorkbenchSession &session, const Group
 QString nightVerdict(const cb::DisplacementNight &n) {
   if (n.shoulder)
     return n.net < 0 ? QStringLiteral("Shoulder: loses") : QStringLiteral("Shoulder: no loss");
-  return n.net > 0 ? QStringLiteral("Group pays") : QStringLiteral("Displaces more than it pays");
+  return n.net > 0 ? QStringLiteral("Group pays") : QStringLiteral("Group does not pay");
 }
 
 QString offerVerdict(const cb::Displacement &d) {
@@ -255,6 +255,13 @@ void fillGroupOfferTable(QStandardItemModel &table, const GroupOfferResult &r) {
     row[ColGroupValue] = numberCell(n.groupValue, 2);
     row[ColNet] = numberCell(n.net, 2);
     row[ColVerdict] = textCell(nightVerdict(n));
+    row[ColVerdict]->setToolTip(
+        n.shoulder  ? QStringLiteral("The group brings nothing on a shoulder night; a guest turned "
+                                      "away on the next night may have stayed this one too")
+        : n.net > 0 ? QStringLiteral("The group's value is more than the transient "
+                                     "revenue it displaces on this night")
+                    : QStringLiteral("The transient revenue displaced on this night "
+                                     "is more than the group's value"));
     QStringList notes;
     for (const std::string &s : n.notes)
       notes << q(s);

@@ -72,7 +72,7 @@ struct GroupOfferResult {
 GroupOfferResult evaluateGroupOffer(const WorkbenchSession &session, const GroupOffer &offer,
                                     cb::ProgressFn progress = nullptr, void *context = nullptr);
 
-/// A night's verdict: "Group pays" / "Displaces more than it pays" on an offer night (net > 0
+/// A night's verdict: "Group pays" / "Group does not pay" on an offer night (net > 0
 /// or not), "Shoulder: loses" / "Shoulder: no loss" on a shoulder night — `curvebench displace`'s
 /// verdicts in the screen's words.
 QString nightVerdict(const cb::DisplacementNight &n);

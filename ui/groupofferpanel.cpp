@@ -111,8 +111,10 @@ struct GroupOfferPanel::Impl {
   QProgressBar *progress = new QProgressBar;
   QLabel *message = new QLabel;
   // Result.
-  QLabel *verdict = new QLabel;
+  QLabel *verdict = new QLabel; ///< the headline
+  QLabel *details = new QLabel; ///< totals and break-even rate, or what is wrong
   QLabel *caution = new QLabel;
+  QLabel *basis = new QLabel; ///< what the figures rest on
   GroupOfferChart *chart = new GroupOfferChart;
   QStandardItemModel *model = nullptr;
   QTableView *table = new QTableView;
@@ -167,12 +169,17 @@ struct GroupOfferPanel::Impl {
       poll->stop();
   }
 
-  void clearResult(const QString &why) {
+  /// No result: the headline says why, `detail` (red) what to correct, if anything.
+  void clearResult(const QString &why, const QString &detail = {}) {
     result.reset();
     fillGroupOfferTable(*model, GroupOfferResult{});
     chart->setData({});
     verdict->setText(why);
+    verdict->setStyleSheet({});
+    details->setText(detail);
+    details->setStyleSheet(QStringLiteral("color: #A03000; font-weight: bold"));
     caution->clear();
+    basis->clear();
   }
 
   void show(GroupOfferResult r) {
@@ -199,19 +206,17 @@ struct GroupOfferPanel::Impl {
                                                : QString::fromStdString(res.offer.name);
     const QString colour =
         res.displacement.worthIt ? QStringLiteral("#006040") : QStringLiteral("#A03000");
-    verdict->setText(
-        QStringLiteral("<span style='font-size:13pt; font-weight:bold; color:%1'>Verdict for %2: "
-                       "%3</span>"
-                       "<br>%4<br><b>%5</b>")
-            .arg(colour, who.toHtmlEscaped(), offerVerdict(res.displacement).toHtmlEscaped(),
-                 offerTotals(res).toHtmlEscaped(), breakEvenText(res).toHtmlEscaped()));
+    verdict->setText(QStringLiteral("Verdict for %1: %2").arg(who, offerVerdict(res.displacement)));
+    verdict->setStyleSheet(QStringLiteral("color: %1").arg(colour));
+    details->setText(offerTotals(res) + QLatin1Char('\n') + breakEvenText(res));
+    details->setStyleSheet({});
     caution->setText(QString::fromUtf8(cb::kAdvisoryCaution.data(),
                                        static_cast<qsizetype>(cb::kAdvisoryCaution.size())));
-    message->setText(
-        QStringLiteral("Checked as of %1: transient demand from the %2 forecast of transient "
-                       "business, the transient rate is its ADR over the last 365 nights.")
-            .arg(toQDate(res.asOf).toString(QStringLiteral("d MMM yyyy")),
-                 QString::fromStdString(res.method)));
+    basis->setText(QStringLiteral("As of %1 · transient demand: the %2 forecast of transient "
+                                  "business · transient rate: its ADR over the last 365 nights")
+                       .arg(toQDate(res.asOf).toString(QStringLiteral("d MMM yyyy")),
+                            QString::fromStdString(res.method)));
+    message->clear();
     message->setStyleSheet({});
   }
 };
@@ -244,8 +249,20 @@ GroupOfferPanel::GroupOfferPanel(QWidget *parent) : QWidget(parent), d_(new Impl
   d_->rooms->setMinimumHeight(110);
   d_->message->setWordWrap(true);
   d_->verdict->setWordWrap(true);
-  d_->verdict->setTextFormat(Qt::RichText);
+  d_->verdict->setTextFormat(Qt::PlainText);
+  QFont headline = d_->verdict->font();
+  headline.setPointSizeF(headline.pointSizeF() * 1.3);
+  headline.setBold(true);
+  d_->verdict->setFont(headline);
+  d_->details->setWordWrap(true);
+  d_->details->setTextFormat(Qt::PlainText);
+  d_->basis->setWordWrap(true);
   d_->caution->setWordWrap(true);
+  // Word-wrapped labels are not always given the lines they need: keep room for them.
+  const int line = fontMetrics().lineSpacing();
+  d_->message->setMinimumHeight(4 * line);
+  d_->message->setAlignment(Qt::AlignTop | Qt::AlignLeft);
+  d_->details->setMinimumHeight(2 * line);
   QFont italic = d_->caution->font();
   italic.setItalic(true);
   d_->caution->setFont(italic);
@@ -287,21 +304,18 @@ GroupOfferPanel::GroupOfferPanel(QWidget *parent) : QWidget(parent), d_(new Impl
   auto *right = new QWidget;
   auto *rightLay = new QVBoxLayout(right);
   rightLay->setContentsMargins(0, 0, 0, 0);
-  auto *top = new QHBoxLayout;
-  auto *verdictBox = new QVBoxLayout;
-  verdictBox->addWidget(d_->verdict);
-  verdictBox->addWidget(d_->caution);
-  top->addLayout(verdictBox, 1);
+  rightLay->addWidget(d_->verdict);
+  rightLay->addWidget(d_->details);
+  rightLay->addWidget(d_->caution);
   auto *csv = new QPushButton(QStringLiteral("Table CSV…"));
   auto *xlsx = new QPushButton(QStringLiteral("XLSX…"));
   auto *img = new QPushButton(QStringLiteral("Chart PNG/PDF…"));
-  auto *exports = new QVBoxLayout;
+  auto *exports = new QHBoxLayout;
+  exports->addWidget(d_->basis, 1);
   exports->addWidget(csv);
   exports->addWidget(xlsx);
   exports->addWidget(img);
-  exports->addStretch(1);
-  top->addLayout(exports);
-  rightLay->addLayout(top);
+  rightLay->addLayout(exports);
   auto *shown = new TwoLineHeaders(this);
   shown->setSourceModel(d_->model);
   d_->table->setModel(shown);
@@ -313,6 +327,7 @@ GroupOfferPanel::GroupOfferPanel(QWidget *parent) : QWidget(parent), d_(new Impl
   split->addWidget(d_->table);
   split->setStretchFactor(0, 3);
   split->setStretchFactor(1, 2);
+  split->setSizes({300, 200}); // the chart larger, whatever the first contents
   rightLay->addWidget(split, 1);
 
   auto *outer = new QHBoxLayout(this);
@@ -439,7 +454,7 @@ void GroupOfferPanel::evaluate() {
   if (!wrong.isEmpty()) {
     ++d_->generation;
     d_->busy(false);
-    d_->clearResult(QStringLiteral("No verdict: the offer needs a correction."));
+    d_->clearResult(QStringLiteral("No verdict: the offer needs a correction."), wrong);
     d_->message->setText(wrong);
     d_->message->setStyleSheet(QStringLiteral("color: #A03000; font-weight: bold"));
     emit evaluated();
@@ -465,7 +480,7 @@ void GroupOfferPanel::evaluate() {
       d_->clearResult(QStringLiteral("No verdict: the check was cancelled."));
       d_->message->setText(QStringLiteral("Check cancelled."));
     } else if (!r.error.isEmpty()) {
-      d_->clearResult(QStringLiteral("No verdict."));
+      d_->clearResult(QStringLiteral("No verdict."), r.error);
       d_->message->setText(r.error);
       d_->message->setStyleSheet(QStringLiteral("color: #A03000; font-weight: bold"));
     } else {
@@ -493,7 +508,9 @@ QTableWidget *GroupOfferPanel::roomsEditor() const { return d_->rooms; }
 QCheckBox *GroupOfferPanel::sameEveryNight() const { return d_->same; }
 QSpinBox *GroupOfferPanel::nightsEditor() const { return d_->nights; }
 QString GroupOfferPanel::messageText() const { return d_->message->text(); }
-QString GroupOfferPanel::verdictText() const { return d_->verdict->text(); }
+QString GroupOfferPanel::verdictText() const {
+  return d_->verdict->text() + QLatin1Char('\n') + d_->details->text();
+}
 QString GroupOfferPanel::cautionText() const { return d_->caution->text(); }
 
 } // namespace cbui

@@ -169,7 +169,7 @@ private slots:
                                    QStringLiteral("displaces more than it pays"),
                                    QStringLiteral("loses"), QStringLiteral("even")};
     const QString ourVerdicts[] = {
-        QStringLiteral("Group pays"), QStringLiteral("Displaces more than it pays"),
+        QStringLiteral("Group pays"), QStringLiteral("Group does not pay"),
         QStringLiteral("Shoulder: loses"), QStringLiteral("Shoulder: no loss")};
     for (std::size_t i = 0; i < r.displacement.nights.size(); ++i) {
       const cb::DisplacementNight &n = r.displacement.nights[i];
