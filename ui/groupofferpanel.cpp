@@ -92,7 +92,7 @@ public:
 } // namespace
 
 struct GroupOfferPanel::Impl {
-  std::shared_ptr<const WorkbenchSession> session;
+  const WorkbenchSession *session = nullptr; ///< not owned
   std::filesystem::path storePath;
   // Editor.
   QLineEdit *name = new QLineEdit;
@@ -380,14 +380,13 @@ void GroupOfferPanel::setSession(WorkbenchSession *session) {
   ++d_->generation; // a running check's result is for the old session: dropped
   d_->busy(false);
   if (!session) {
-    d_->session.reset();
+    d_->session = nullptr;
     d_->clearResult(QStringLiteral("Open a store to check a group offer."));
     return;
   }
   const bool fresh = session->path() != d_->storePath;
   d_->storePath = session->path();
-  // A copy: the check runs in the background while the window may change the session.
-  d_->session = std::make_shared<const WorkbenchSession>(*session);
+  d_->session = session;
   const QString cur = QString::fromStdString(session->property().currency) + QLatin1Char(' ');
   for (QDoubleSpinBox *s : {d_->rate, d_->other, d_->cost})
     s->setPrefix(cur);
@@ -467,7 +466,8 @@ void GroupOfferPanel::evaluate() {
   d_->message->setStyleSheet({});
   d_->message->setText(QStringLiteral("Forecasting transient demand up to %1 …")
                            .arg(toQDate(o.departure()).toString(QStringLiteral("ddd d MMM yyyy"))));
-  auto session = d_->session;
+  // A copy: the check runs in the background while the window may change the session.
+  auto session = std::make_shared<const WorkbenchSession>(*d_->session);
   auto control = d_->control;
   auto *watcher = new QFutureWatcher<GroupOfferResult>(this);
   connect(watcher, &QFutureWatcher<GroupOfferResult>::finished, this, [this, watcher, generation] {

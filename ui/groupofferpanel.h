@@ -30,7 +30,7 @@ class GroupOfferPanel : public QWidget {
 public:
   explicit GroupOfferPanel(QWidget *parent = nullptr);
   ~GroupOfferPanel() override;
-  /// The session to read (not owned; copied for the background check; nullptr clears). A new
+  /// The session to read (not owned; each check works on a copy; nullptr clears). A new
   /// store starts the editor on the starting offer; a new reading date keeps the offer.
   void setSession(WorkbenchSession *session);
   /// Puts `offer` into the editor (rooms per night as given; "Same for every night" is ticked
