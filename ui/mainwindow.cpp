@@ -9,6 +9,7 @@
 #include "ui/datapanel.h"
 #include "ui/datestudypanel.h"
 #include "ui/findingspanel.h"
+#include "ui/groupofferpanel.h"
 #include "ui/horizonpanel.h"
 #include "ui/importjob.h"
 #include "ui/morningbrief.h"
@@ -114,6 +115,8 @@ MainWindow::MainWindow(QWidget *parent)
   tabs_->addTab(compare_, QStringLiteral("Segment Compare"));
   tabs_->addTab(yearMap_, QStringLiteral("Year Map"));
   tabs_->addTab(accuracy_, QStringLiteral("Accuracy"));
+  groupOffer_ = new GroupOfferPanel;
+  tabs_->addTab(groupOffer_, QStringLiteral("Group offer"));
   tabs_->addTab(data_, QStringLiteral("Data"));
   tabs_->addTab(propertyEditor_, QStringLiteral("Property"));
   const char *tips[] = {
@@ -122,6 +125,7 @@ MainWindow::MainWindow(QWidget *parent)
       "Segments side by side: curves, booking window, rate by lead, this year vs last year",
       "A whole year of nights by season class or demand",
       "How well each forecast method did on this property",
+      "A group's offer against the transient business it would displace, night by night",
       "Import files step by step, the import log and the data's health",
       "The property: capacity, room types, segments, channels, seasons, costs, events"};
   for (int i = 0; i < tabs_->count(); ++i)
@@ -221,6 +225,7 @@ MainWindow::~MainWindow() {
   horizon_->setSession(nullptr);
   compare_->setSession(nullptr);
   yearMap_->setSession(nullptr);
+  groupOffer_->setSession(nullptr);
 }
 
 void MainWindow::refreshLazyScreens() {
@@ -501,6 +506,7 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   refreshLazyScreens();
   accuracy_->setSession(session_.get());
   data_->setStore(session_->path());
+  groupOffer_->setSession(session_.get());
   showNight(session_->defaultNight());
   emit sessionLoaded();
 }
@@ -535,6 +541,7 @@ bool MainWindow::setReadingDate(cb::Date date) {
   compareStale_ = yearMapStale_ = true;
   refreshLazyScreens();
   accuracy_->setSession(session_.get());
+  groupOffer_->setSession(session_.get());
   if (night_.isValid())
     showNight(fromQDate(night_));
   return true;
@@ -548,10 +555,10 @@ void MainWindow::showNight(cb::Date night) {
 QDate MainWindow::studiedNight() const { return night_; }
 
 QStringList MainWindow::screenNames() {
-  return {QStringLiteral("horizon"),         QStringLiteral("date-study"),
-          QStringLiteral("segment-compare"), QStringLiteral("year-map"),
-          QStringLiteral("accuracy"),        QStringLiteral("data"),
-          QStringLiteral("property")};
+  return {
+      QStringLiteral("horizon"),  QStringLiteral("date-study"), QStringLiteral("segment-compare"),
+      QStringLiteral("year-map"), QStringLiteral("accuracy"),   QStringLiteral("group-offer"),
+      QStringLiteral("data"),     QStringLiteral("property")};
 }
 
 int MainWindow::screenFromName(const QString &name) {

@@ -40,6 +40,7 @@ class YearMapPanel;
 class FindingsPanel;
 class AccuracyPanel;
 class DataPanel;
+class GroupOfferPanel;
 
 class MainWindow : public QMainWindow {
   Q_OBJECT
@@ -50,8 +51,9 @@ public:
     SegmentCompareScreen = 2,
     YearMapScreen = 3,
     AccuracyScreen = 4,
-    DataScreen = 5,
-    PropertyScreen = 6
+    GroupOfferScreen = 5,
+    DataScreen = 6,
+    PropertyScreen = 7
   };
 
   explicit MainWindow(QWidget *parent = nullptr);
@@ -87,6 +89,7 @@ public:
   FindingsPanel *findingsPanel() const { return findings_; }
   AccuracyPanel *accuracyPanel() const { return accuracy_; }
   DataPanel *dataPanel() const { return data_; }
+  GroupOfferPanel *groupOfferPanel() const { return groupOffer_; }
   /// Cancels the running import (as its Cancel button does); nothing is written.
   void cancelImport();
   /// The night Date Study shows.
@@ -127,6 +130,7 @@ private:
   bool compareStale_ = true, yearMapStale_ = true;
   DateStudyPanel *dateStudy_;
   AccuracyPanel *accuracy_;
+  GroupOfferPanel *groupOffer_ = nullptr;
   DataPanel *data_;
   QDateEdit *asOfEdit_;
   QLabel *asOfNote_;

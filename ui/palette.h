@@ -30,4 +30,10 @@ inline const std::array<NamedColour, 7> &segmentColours() {
   return colours;
 }
 
+// Group offer chart.
+inline QColor transientDemand() { return QColor(0x00, 0x72, 0xB2); } // blue
+inline QColor groupsHeld() { return QColor(0x99, 0x99, 0x99); }      // grey
+inline QColor groupOffer() { return QColor(0xD5, 0x5E, 0x00); }      // vermillion
+inline QColor displaced() { return QColor(0xCC, 0x79, 0xA7); }       // reddish purple
+
 } // namespace cbui::palette

@@ -226,8 +226,9 @@ void YearMapPanel::redraw() {
   d_->view->setMap(&data, colouring, std::max(segment, 0), title);
   d_->status->setText(data.method.empty()
                           ? QStringLiteral("Every night of %1 is past: actuals").arg(data.year)
-                          : QStringLiteral("Forecast: %1 · hover a night for its figures, click "
-                                           "it for Date Study")
+                          : QStringLiteral("Forecast: %1 · hover a night for its figures; click "
+                                           "it, or move with the arrow keys and press Enter, "
+                                           "for Date Study")
                                 .arg(QString::fromStdString(data.method)));
   d_->status->setToolTip(d_->status->text());
 }

@@ -5,6 +5,7 @@
 
 #include <QEvent>
 #include <QHelpEvent>
+#include <QKeyEvent>
 #include <QLocale>
 #include <QMouseEvent>
 #include <QPageSize>
@@ -27,6 +28,7 @@ QDate toQDate(cb::Date d) {
 
 YearMapView::YearMapView(QWidget *parent) : QWidget(parent) {
   setMouseTracking(true);
+  setFocusPolicy(Qt::StrongFocus);
   setAttribute(Qt::WA_OpaquePaintEvent);
 }
 
@@ -35,6 +37,15 @@ void YearMapView::setMap(const YearMapData *map, int colouring, int segment, con
   colouring_ = colouring;
   segment_ = segment;
   title_ = title;
+  if (!map || focus_.year() != map->year)
+    focus_ = QDate();
+  update();
+}
+
+void YearMapView::setFocusedNight(const QDate &night) {
+  if (!data_ || night.year() != data_->year)
+    return;
+  focus_ = night;
   update();
 }
 
@@ -65,6 +76,17 @@ void YearMapView::paintEvent(QPaintEvent *) {
   QPainter p(this);
   p.fillRect(rect(), palette().window());
   paintMap(p, rect());
+  // The keyboard's night: a thick black-and-white dashed outline over the cell's edge, visible on
+  // every cell colour and unlike the reading date's solid one; on screen only, not in exports.
+  if (hasFocus() && focus_.isValid()) {
+    const QRect c = cellRect(focus_).adjusted(0, 0, -1, -1);
+    p.setRenderHint(QPainter::Antialiasing, false);
+    p.setBrush(Qt::NoBrush);
+    p.setPen(QPen(Qt::white, 4));
+    p.drawRect(c);
+    p.setPen(QPen(Qt::black, 4, Qt::DashLine));
+    p.drawRect(c);
+  }
 }
 
 void YearMapView::paintMap(QPainter &p, const QRect &area) const {
@@ -158,9 +180,67 @@ void YearMapView::paintMap(QPainter &p, const QRect &area) const {
 
 void YearMapView::mouseReleaseEvent(QMouseEvent *event) {
   if (event->button() == Qt::LeftButton)
-    if (auto night = nightAt(event->position().toPoint()))
+    if (auto night = nightAt(event->position().toPoint())) {
+      setFocusedNight(*night);
       emit nightActivated(*night);
+    }
   QWidget::mouseReleaseEvent(event);
+}
+
+void YearMapView::keyPressEvent(QKeyEvent *event) {
+  if (!data_) {
+    QWidget::keyPressEvent(event);
+    return;
+  }
+  const int year = data_->year;
+  if (!focus_.isValid()) {
+    // The first key puts the keyboard on the reading date when it is in this year, else on 1 Jan.
+    const QDate asOf = toQDate(data_->asOf);
+    switch (event->key()) {
+    case Qt::Key_Left:
+    case Qt::Key_Right:
+    case Qt::Key_Up:
+    case Qt::Key_Down:
+    case Qt::Key_Home:
+    case Qt::Key_End: setFocusedNight(asOf.year() == year ? asOf : QDate(year, 1, 1)); return;
+    default: break;
+    }
+  }
+  const QDate f = focus_;
+  const bool ctrl = event->modifiers().testFlag(Qt::ControlModifier);
+  auto sameDayIn = [&](int month) {
+    const QDate first(year, month, 1);
+    return QDate(year, month, std::min(f.day(), first.daysInMonth()));
+  };
+  QDate to;
+  switch (event->key()) {
+  case Qt::Key_Left: to = f.addDays(-1); break;
+  case Qt::Key_Right: to = f.addDays(1); break;
+  case Qt::Key_Up: to = f.month() > 1 ? sameDayIn(f.month() - 1) : f; break;
+  case Qt::Key_Down: to = f.month() < 12 ? sameDayIn(f.month() + 1) : f; break;
+  case Qt::Key_Home: to = ctrl ? QDate(year, 1, 1) : QDate(year, f.month(), 1); break;
+  case Qt::Key_End:
+    to = ctrl ? QDate(year, 12, 31) : QDate(year, f.month(), f.daysInMonth());
+    break;
+  case Qt::Key_Return:
+  case Qt::Key_Enter:
+    if (f.isValid())
+      emit nightActivated(f);
+    return;
+  default: QWidget::keyPressEvent(event); return;
+  }
+  if (to.year() == year) // the map's ends: stay on 1 Jan / 31 Dec
+    setFocusedNight(to);
+}
+
+void YearMapView::focusInEvent(QFocusEvent *event) {
+  QWidget::focusInEvent(event);
+  update();
+}
+
+void YearMapView::focusOutEvent(QFocusEvent *event) {
+  QWidget::focusOutEvent(event);
+  update();
 }
 
 bool YearMapView::event(QEvent *event) {

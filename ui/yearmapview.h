@@ -2,6 +2,10 @@
 // cell coloured by the panel's choice (season class, demand / capacity, a segment's share) with
 // its letter or percentage written in it, forecast nights hatched, the reading date outlined and
 // the legend (with its bands) drawn underneath. Hover shows the night's figures; a click opens it.
+// Keyboard: a focused night (outlined while the map has the keyboard focus) moves with ← / → (one
+// night), ↑ / ↓ (the same day one month row up or down, the last day of a shorter month), Home /
+// End (first / last night of its month row), Ctrl+Home / Ctrl+End (first / last night of the
+// year); Enter opens it as a click does.
 #pragma once
 
 #include <QDate>
@@ -24,6 +28,10 @@ public:
   QRect cellRect(const QDate &night) const;
   /// The night under `pos`, if any.
   std::optional<QDate> nightAt(const QPoint &pos) const;
+  /// The night the keyboard is on (invalid before the first key or click on this map's year).
+  QDate focusedNight() const { return focus_; }
+  /// Puts the keyboard on `night` (ignored when it is not on the map).
+  void setFocusedNight(const QDate &night);
   /// Saves the map (with its legend) as PNG or PDF, by the file's extension.
   bool exportTo(const QString &file);
   QSize sizeHint() const override { return {1200, 560}; }
@@ -35,6 +43,9 @@ signals:
 protected:
   void paintEvent(QPaintEvent *event) override;
   void mouseReleaseEvent(QMouseEvent *event) override;
+  void keyPressEvent(QKeyEvent *event) override;
+  void focusInEvent(QFocusEvent *event) override;
+  void focusOutEvent(QFocusEvent *event) override;
   bool event(QEvent *event) override;
 
 private:
@@ -43,6 +54,7 @@ private:
   const YearMapData *data_ = nullptr;
   int colouring_ = 0, segment_ = 0;
   QString title_;
+  QDate focus_;
 };
 
 } // namespace cbui

@@ -167,6 +167,78 @@ private slots:
     QVERIFY(std::filesystem::file_size(out / "m.pdf") > 1000);
   }
 
+  // Keys (the view's header states them): ← / → one night, ↑ / ↓ the same day one month row up or
+  // down (clamped to a shorter month), Home / End the ends of the month row, Ctrl+Home / Ctrl+End
+  // the ends of the year, Enter opens the night; the focus outline is drawn while focused.
+  void keyboardMovesTheFocusedNight() {
+    cbui::YearMapPanel panel;
+    panel.resize(1300, 640);
+    panel.show();
+    QVERIFY(QTest::qWaitForWindowExposed(&panel));
+    QSignalSpy computed(&panel, &cbui::YearMapPanel::computed);
+    QSignalSpy activated(&panel, &cbui::YearMapPanel::nightActivated);
+    panel.setSession(session_.get());
+    panel.setYear(2025);
+    QVERIFY(computed.wait(30000));
+    cbui::YearMapView *view = panel.view();
+    panel.activateWindow();
+    view->setFocus();
+    QVERIFY(QTest::qWaitForWindowActive(&panel));
+    QTRY_VERIFY(view->hasFocus());
+    QVERIFY(!view->focusedNight().isValid());
+    // The first key lands on 1 Jan (the reading date, 2026-06-20, is not in 2025).
+    QTest::keyClick(view, Qt::Key_Right);
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 1));
+    QTest::keyClick(view, Qt::Key_Left); // 1 Jan is the map's first night: stays
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 1));
+    QTest::keyClick(view, Qt::Key_End);
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 31));
+    QTest::keyClick(view, Qt::Key_Right); // across the month end
+    QCOMPARE(view->focusedNight(), QDate(2025, 2, 1));
+    QTest::keyClick(view, Qt::Key_Left);
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 31));
+    QTest::keyClick(view, Qt::Key_Down); // February 2025 has 28 days
+    QCOMPARE(view->focusedNight(), QDate(2025, 2, 28));
+    QTest::keyClick(view, Qt::Key_Up);
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 28));
+    QTest::keyClick(view, Qt::Key_Up); // no row above January
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 28));
+    QTest::keyClick(view, Qt::Key_Home);
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 1));
+    QTest::keyClick(view, Qt::Key_End, Qt::ControlModifier);
+    QCOMPARE(view->focusedNight(), QDate(2025, 12, 31));
+    QTest::keyClick(view, Qt::Key_Right); // 31 Dec is the last night: stays
+    QCOMPARE(view->focusedNight(), QDate(2025, 12, 31));
+    QTest::keyClick(view, Qt::Key_Home, Qt::ControlModifier);
+    QCOMPARE(view->focusedNight(), QDate(2025, 1, 1));
+    // To 1 Aug: seven rows down, then Enter opens it as a click does.
+    for (int i = 0; i < 7; ++i)
+      QTest::keyClick(view, Qt::Key_Down);
+    QCOMPARE(view->focusedNight(), QDate(2025, 8, 1));
+    QCOMPARE(activated.size(), 0);
+    QTest::keyClick(view, Qt::Key_Return);
+    QCOMPARE(activated.size(), 1);
+    QCOMPARE(activated.at(0).at(0).toDate(), QDate(2025, 8, 1));
+    // The outline is drawn on the focused cell's edge (black and white dashes) and on no other.
+    const QImage shot = view->grab().toImage();
+    auto outlined = [&](const QDate &night) {
+      const QRect c = view->cellRect(night);
+      int marks = 0;
+      for (int x = c.left() + 1; x < c.right() - 1; ++x) {
+        const QColor px = shot.pixelColor(x, c.top() + 1);
+        marks += px == QColor(Qt::black) || px == QColor(Qt::white);
+      }
+      return marks >= c.width() - 4;
+    };
+    QVERIFY(outlined(QDate(2025, 8, 1)));
+    QVERIFY(!outlined(QDate(2025, 8, 2)));
+    // A click moves the keyboard's night too.
+    QTest::mouseClick(view, Qt::LeftButton, {}, view->cellRect(QDate(2025, 6, 14)).center());
+    QCOMPARE(view->focusedNight(), QDate(2025, 6, 14));
+    QTest::keyClick(view, Qt::Key_Right);
+    QCOMPARE(view->focusedNight(), QDate(2025, 6, 15));
+  }
+
   void mainWindowOpensDateStudy() {
     cbui::MainWindow w;
     QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
