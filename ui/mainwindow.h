@@ -1,7 +1,6 @@
 // The workbench window: opens a store off the UI thread and shows its screens — Horizon (the next
-// N nights), Date Study (one night), Segment Compare, Year Map and the property — under a
-// prominent, changeable reading date
-// ("As of"). Remembers geometry, the last screen and recent stores; a CSV dropped on the window is
+// N nights), Date Study (one night), Segment Compare, Year Map, Accuracy, Group offer, Data
+// (imports) and Property (the editor) — under a prominent, changeable reading date ("As of"). Remembers geometry, the last screen and recent stores; a CSV dropped on the window is
 // imported into the open store in the background, its findings listed in a dock, not a dialog.
 #pragma once
 

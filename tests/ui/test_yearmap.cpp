@@ -9,6 +9,7 @@
 #include "core/seasons.h"
 #include "core/store.h"
 #include "testsupport.h"
+#include "ui/csvexport.h"
 #include "ui/mainwindow.h"
 #include "ui/workbenchsession.h"
 #include "ui/yearmapmodel.h"
@@ -18,6 +19,7 @@
 #include <QApplication>
 #include <QHelpEvent>
 #include <QSignalSpy>
+#include <QStandardItemModel>
 #include <QStandardPaths>
 #include <QTest>
 #include <QToolTip>
@@ -135,6 +137,14 @@ private slots:
     QVERIFY(cbui::yearMapTip(map, dayIndex(2025, d("2025-08-02")), std::nullopt)
                 .contains(QStringLiteral("Actual: 15 rooms (final 16)")));
     QVERIFY(cbui::yearMapCsv(map).contains(QStringLiteral("2025-08-02,Sat,1,15.00,16,")));
+    // The XLSX export takes numbers from kCsvValueRole: figures carry one, text columns none.
+    const auto table = cbui::yearMapTable(map);
+    const int row = static_cast<int>(dayIndex(2025, d("2025-08-02")));
+    QCOMPARE(table->headerData(3, Qt::Horizontal).toString(), QStringLiteral("rooms"));
+    QCOMPARE(table->index(row, 3).data(cbui::kCsvValueRole).toString(), QStringLiteral("15.00"));
+    QCOMPARE(table->index(row, 4).data(cbui::kCsvValueRole).toString(), QStringLiteral("16"));
+    QVERIFY(!table->index(row, 0).data(cbui::kCsvValueRole).isValid()); // the night: text
+    QVERIFY(!table->index(row, 1).data(cbui::kCsvValueRole).isValid()); // the weekday: text
   }
 
   void panelClickEmitsTheNight() {
