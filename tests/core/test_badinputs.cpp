@@ -278,4 +278,18 @@ TEST(BadInputCorpus, TwoMegabyteQuotedFieldIsRefusedUnchanged) {
                          "the record starting at line 2 is longer than 1048576 bytes");
 }
 
+// A file that is not there and a folder picked by mistake: the reason, for both importers.
+TEST(BadInputCorpus, MissingFileAndFolderNameTheReason) {
+  cbtest::TempDir dir;
+  auto store = seededStore(dir);
+  fs::create_directory(dir / "picked_a_folder");
+  for (const char *kind : {"reservations", "blocks"}) {
+    SCOPED_TRACE(kind);
+    expectRefusedUnchanged(*store, dir / "no_such_file.csv", kind, "", cb::ImportMode::Strict, 0, 0,
+                           "cannot open the file: No such file or directory");
+    expectRefusedUnchanged(*store, dir / "picked_a_folder", kind, "", cb::ImportMode::Strict, 0, 0,
+                           "cannot open the file: it is a folder");
+  }
+}
+
 } // namespace
