@@ -74,7 +74,8 @@ public:
                ///< is refused)
     /// The desktop program: read-write when no other program holds the store's writer lock
     /// (an advisory lock on the file, released on close or crash), else read-only with
-    /// readOnlyReason() saying so. The lock is held for the life of the Store.
+    /// readOnlyReason() saying so. The lock is held for the life of the Store. (POSIX flock;
+    /// where there is none this opens read-write.)
     WriterElseReadOnly,
   };
 
