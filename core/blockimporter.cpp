@@ -9,7 +9,9 @@
 #include <date/date.h>
 #include <fmt/format.h>
 
+#include <cerrno>
 #include <chrono>
+#include <cstring>
 #include <fstream>
 #include <sstream>
 #include <unordered_map>
@@ -67,9 +69,17 @@ ImportReport importBlocks(Store &store, const std::filesystem::path &file,
     return failed();
   }
   std::error_code ec;
+  errno = 0;
   std::ifstream in(file, std::ios::binary);
+  const int openError = errno;
   if (std::filesystem::is_directory(file, ec) || !in) {
-    findings.push_back(Finding{Severity::Error, label, 0, 0, "cannot open the file"});
+    // The reason, as the reservation import gives it: a missing file and a locked one differ.
+    findings.push_back(
+        Finding{Severity::Error, label, 0, 0,
+                std::filesystem::is_directory(file, ec)
+                    ? std::string("cannot open the file: it is a folder")
+                    : fmt::format("cannot open the file: {}",
+                                  std::strerror(openError != 0 ? openError : ENOENT))});
     rep.ioOrUsageError = true;
     return failed();
   }

@@ -1,6 +1,8 @@
 // Native blocks layout and JSON block profiles: parsing, binding to a header, mapping rows.
 #include "core/blockprofile.h"
 
+#include "core/jsonlocate.h"
+
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
@@ -73,11 +75,35 @@ std::optional<BlockProfile> BlockProfile::parse(std::string_view json, const std
                                                 Findings &findings) {
   bool ok = true;
   auto error = [&](std::string message) {
-    findings.push_back(Finding{Severity::Error, label, 0, 0, std::move(message)});
+    // Point at the key the message is about (line 0 when it names none).
+    const auto [line, column] = jsonKeyPosition(json, profileKeyPath(message));
+    findings.push_back(Finding{Severity::Error, label, line, column, std::move(message)});
     ok = false;
   };
-  Json j = Json::parse(json.begin(), json.end(), nullptr, false);
-  if (j.is_discarded() || !j.is_object()) {
+  Json j;
+  try {
+    j = Json::parse(json.begin(), json.end());
+  } catch (const Json::parse_error &e) {
+    // Located like a reservation profile's syntax error: the line and column where it broke.
+    std::string what = e.what();
+    if (auto cut = what.rfind(": "); cut != std::string::npos)
+      what.erase(0, cut + 2);
+    std::size_t at = e.byte == 0 ? 0 : e.byte - 1;
+    std::int64_t line = 1;
+    int column = 1;
+    for (std::size_t i = 0; i < at && i < json.size(); ++i) {
+      if (json[i] == '\n') {
+        ++line;
+        column = 1;
+      } else if ((static_cast<unsigned char>(json[i]) & 0xC0) != 0x80) {
+        ++column;
+      }
+    }
+    findings.push_back(Finding{Severity::Error, label, line, column,
+                               "the blocks profile is not valid JSON: " + what});
+    return std::nullopt;
+  }
+  if (!j.is_object()) {
     error("the blocks profile is not a JSON object");
     return std::nullopt;
   }

@@ -9,9 +9,30 @@
 
 #include <fmt/format.h>
 
+#include <string_view>
 #include <utility>
 
 namespace cb {
+namespace {
+
+/// What a file that is not text at all is, by its first bytes (the formats people pick by
+/// mistake in an import dialog), or nullptr.
+const char *binaryKind(std::string_view head) {
+  auto starts = [&](std::string_view magic) { return head.substr(0, magic.size()) == magic; };
+  if (starts("PK\x03\x04"))
+    return "a ZIP archive (an Excel .xlsx workbook?)";
+  if (starts("\xD0\xCF\x11\xE0\xA1\xB1\x1A\xE1"))
+    return "an old Excel .xls workbook";
+  if (starts("\x1F\x8B"))
+    return "gzip-compressed (decompress it first)";
+  if (starts("%PDF-"))
+    return "a PDF document";
+  if (starts(std::string_view("SQLite format 3\0", 16)))
+    return "an SQLite database (a Curvebench store?)";
+  return nullptr;
+}
+
+} // namespace
 
 CsvReader::CsvReader(std::istream &in, std::string fileLabel)
     : CsvReader(in, std::move(fileLabel), Options{}) {}
@@ -44,6 +65,12 @@ bool CsvReader::refill() {
       consumed_ += 3;
     } else if ((u(0) == 0xFF && u(1) == 0xFE) || (u(0) == 0xFE && u(1) == 0xFF)) {
       fail(1, 1, "the file is UTF-16 encoded; save it as UTF-8 (in a spreadsheet: \"CSV UTF-8\")");
+      return false;
+    } else if (const char *kind = binaryKind(std::string_view(buf_.data(), end_))) {
+      fail(1, 1,
+           fmt::format("the file is {}, not CSV text; save the data as CSV (in a spreadsheet: "
+                       "\"CSV UTF-8\")",
+                       kind));
       return false;
     }
   }
@@ -113,6 +140,14 @@ int CsvReader::get() {
   auto b = static_cast<unsigned char>(buf_[pos_++]);
   ++consumed_;
   ++fieldByte_;
+  if (b == 0) {
+    // Text never holds byte 0: the file is binary, or UTF-16 without its byte-order mark.
+    fail(line_, currentField_,
+         fmt::format("byte {} of field {} is a NUL (0x00): the file is not CSV text (UTF-16 "
+                     "without a byte-order mark, or a binary file); save it as UTF-8 CSV",
+                     fieldByte_, currentField_));
+    return kFailed;
+  }
   if (!checkUtf8(b))
     return kFailed;
   if ((b & 0xC0) != 0x80)
@@ -263,9 +298,24 @@ bool CsvReader::next(CsvRecord &out) {
 
 bool CsvReader::checkHeader(CsvRecord &rec) {
   headerSize_ = rec.size();
+  // A byte-order mark is allowed once, before the first column name (skipped in refill()); one
+  // inside a name (a file saved twice with a BOM, or pasted together) would hide the column.
+  for (std::size_t i = 0; i < rec.size(); ++i)
+    if (rec[i].find("\xEF\xBB\xBF") != std::string::npos) {
+      fail(rec.fields[i].line, static_cast<int>(i + 1),
+           fmt::format("column name {} holds an invisible byte-order mark (U+FEFF), e.g. from a "
+                       "file saved twice as UTF-8 with BOM; remove it and save the file again",
+                       i + 1));
+      return false;
+    }
   if (rec.size() != 1)
     return true;
   const std::string &h = rec[0];
+  if (h.find_first_not_of(" \t") == std::string::npos) {
+    fail(rec.line, 0,
+         "the first non-empty line holds only spaces; expected a header line with column names");
+    return false;
+  }
   auto has = [&](char c) { return c != opt_.delimiter && h.find(c) != std::string::npos; };
   if (has(';'))
     fail(rec.line, 0,
@@ -275,6 +325,10 @@ bool CsvReader::checkHeader(CsvRecord &rec) {
     fail(rec.line, 0,
          "the file is separated by tabs; save it as comma-separated or set \"delimiter\": \"\\t\" "
          "in a mapping profile");
+  else if (has('|'))
+    fail(rec.line, 0,
+         "the file is separated by \"|\" (pipes); save it as comma-separated or set "
+         "\"delimiter\": \"|\" in a mapping profile");
   else if (has(','))
     fail(rec.line, 0,
          fmt::format("the file is separated by commas but the mapping profile says \"{}\"; "

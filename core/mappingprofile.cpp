@@ -1,5 +1,6 @@
 #include "core/mappingprofile.h"
 
+#include "core/jsonlocate.h"
 #include "core/nativeformat.h"
 
 #include <fmt/format.h>
@@ -13,6 +14,7 @@
 #include <functional>
 #include <set>
 #include <sstream>
+#include <tuple>
 #include <utility>
 
 namespace cb {
@@ -154,7 +156,12 @@ public:
   ProfileParser(std::string label, Findings &findings)
       : label_(std::move(label)), findings_(findings) {}
 
+  /// The profile's text, so a finding without a position can point at the key it is about.
+  void setText(std::string_view text) { text_ = text; }
+
   void error(std::string message, std::int64_t line = 0, int column = 0) {
+    if (line == 0)
+      std::tie(line, column) = jsonKeyPosition(text_, profileKeyPath(message));
     findings_.push_back(Finding{Severity::Error, label_, line, column, std::move(message)});
     ok_ = false;
   }
@@ -341,6 +348,7 @@ public:
 private:
   std::string label_;
   Findings &findings_;
+  std::string_view text_;
   bool ok_ = true;
 };
 
@@ -381,6 +389,7 @@ std::optional<MappingProfile> MappingProfile::load(const std::string &nameOrPath
 std::optional<MappingProfile> MappingProfile::parse(std::string_view json, const std::string &label,
                                                     Findings &findings) {
   ProfileParser p(label, findings);
+  p.setText(json);
   Json j;
   try {
     j = Json::parse(json);
@@ -398,7 +407,7 @@ std::optional<MappingProfile> MappingProfile::parse(std::string_view json, const
     return std::nullopt;
   }
   if (!j.is_object()) {
-    p.error("a mapping profile must be a JSON object with \"fields\"");
+    p.error("a mapping profile must be a JSON object with \"fields\"", 1, 1);
     return std::nullopt;
   }
   p.checkKeys(j, "the profile",

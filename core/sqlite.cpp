@@ -11,8 +11,56 @@
 namespace cb {
 namespace {
 
+std::string fileOf(sqlite3 *db) {
+  const char *name = db ? sqlite3_db_filename(db, "main") : nullptr;
+  return name && *name ? name : "the store";
+}
+
+/// The error as a user can act on it: for the conditions a person can meet (a damaged, busy,
+/// full or write-protected file) a plain sentence naming the file comes first, then SQLite's
+/// own words and the SQL in brackets; anything else keeps "message (SQL: …)".
+std::string describe(sqlite3 *db, int rc, std::string_view message, std::string_view sql) {
+  std::string plain;
+  const std::string file = fileOf(db);
+  switch (rc & 0xFF) {
+  case SQLITE_BUSY:
+  case SQLITE_LOCKED:
+    plain = fmt::format("{} is in use by another program (another Curvebench window or command "
+                        "is writing to it); nothing was changed. Close the other program or wait "
+                        "for it to finish, then try again",
+                        file);
+    break;
+  case SQLITE_CORRUPT:
+  case SQLITE_NOTADB:
+    plain = fmt::format("{} is damaged and cannot be read safely; nothing was changed. Restore it "
+                        "from a backup copy",
+                        file);
+    break;
+  case SQLITE_FULL:
+    plain = fmt::format("{}: the disk is full (or the store reached its size limit); this change "
+                        "was not written. Free some space and try again",
+                        file);
+    break;
+  case SQLITE_READONLY:
+    plain = fmt::format("{} is read-only (write-protected, or opened for reading only); nothing "
+                        "was written",
+                        file);
+    break;
+  case SQLITE_IOERR:
+    plain = fmt::format("{}: the disk reported a read or write error; this change was not written",
+                        file);
+    break;
+  default: break;
+  }
+  if (plain.empty())
+    return fmt::format("{} (SQL: {})", message, sql);
+  return fmt::format("{} ({}; SQL: {})", plain, message, sql);
+}
+
 [[noreturn]] void throwError(sqlite3 *db, std::string_view sql) {
-  throw StoreError(fmt::format("{} (SQL: {})", db ? sqlite3_errmsg(db) : "out of memory", sql));
+  if (!db)
+    throw StoreError(fmt::format("out of memory (SQL: {})", sql));
+  throw StoreError(describe(db, sqlite3_extended_errcode(db), sqlite3_errmsg(db), sql));
 }
 
 } // namespace
@@ -84,9 +132,9 @@ bool SqliteStatement::step() {
     return false;
   }
   // Take the message first so the reset cannot replace it.
-  std::string message = sqlite3_errmsg(db_);
+  std::string message = describe(db_, rc, sqlite3_errmsg(db_), sql_);
   sqlite3_reset(stmt_);
-  throw StoreError(fmt::format("{} (SQL: {})", message, sql_));
+  throw StoreError(message);
 }
 
 void SqliteStatement::reset() {
@@ -141,12 +189,15 @@ std::optional<Date> SqliteStatement::columnOptionalDate(int column) const {
 // ---- SqliteDb --------------------------------------------------------------------------------
 
 SqliteDb::SqliteDb(const std::filesystem::path &path, Mode mode) : path_(path) {
-  int flags = SQLITE_OPEN_READWRITE | SQLITE_OPEN_NOMUTEX;
+  int flags =
+      (mode == Mode::ReadOnly ? SQLITE_OPEN_READONLY : SQLITE_OPEN_READWRITE) | SQLITE_OPEN_NOMUTEX;
   if (mode == Mode::Create)
     flags |= SQLITE_OPEN_CREATE;
   int rc = sqlite3_open_v2(path.c_str(), &db_, flags, nullptr);
   if (rc != SQLITE_OK) {
     std::string message = db_ ? sqlite3_errmsg(db_) : sqlite3_errstr(rc);
+    if (db_ && (rc & 0xFF) != SQLITE_CANTOPEN)
+      message = describe(db_, rc, message, "open");
     sqlite3_close_v2(db_);
     db_ = nullptr;
     throw StoreError(fmt::format("cannot open {}: {}", path.string(), message));
@@ -161,10 +212,10 @@ SqliteDb::~SqliteDb() { sqlite3_close_v2(db_); }
 void SqliteDb::exec(std::string_view sql) {
   std::string text(sql); // sqlite3_exec needs a terminated string
   char *error = nullptr;
-  if (sqlite3_exec(db_, text.c_str(), nullptr, nullptr, &error) != SQLITE_OK) {
+  if (int rc = sqlite3_exec(db_, text.c_str(), nullptr, nullptr, &error); rc != SQLITE_OK) {
     std::string message = error ? error : sqlite3_errmsg(db_);
     sqlite3_free(error);
-    throw StoreError(fmt::format("{} (SQL: {})", message, sql));
+    throw StoreError(describe(db_, sqlite3_extended_errcode(db_), message, sql));
   }
 }
 
@@ -201,5 +252,9 @@ std::int64_t SqliteDb::changes() const { return sqlite3_changes64(db_); }
 std::int64_t SqliteDb::lastInsertRowid() const { return sqlite3_last_insert_rowid(db_); }
 
 bool SqliteDb::inTransaction() const { return sqlite3_get_autocommit(db_) == 0; }
+
+bool SqliteDb::readOnly() const { return sqlite3_db_readonly(db_, "main") == 1; }
+
+void SqliteDb::setBusyTimeout(int milliseconds) { sqlite3_busy_timeout(db_, milliseconds); }
 
 } // namespace cb

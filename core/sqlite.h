@@ -75,9 +75,12 @@ private:
 /// One connection to an SQLite file, closed on destruction.
 class SqliteDb {
 public:
-  enum class Mode { OpenExisting, Create };
+  /// ReadOnly opens an existing file for reading only (writes fail with SQLITE_READONLY).
+  enum class Mode { OpenExisting, Create, ReadOnly };
 
-  /// Opens (or creates) the file read-write. Throws cb::StoreError on failure.
+  /// Opens (or creates) the file read-write, or read-only with Mode::ReadOnly. Throws
+  /// cb::StoreError on failure. Every error message names the file; damaged, locked, full and
+  /// read-only files get a plain-language explanation before SQLite's own words.
   SqliteDb(const std::filesystem::path &path, Mode mode);
   ~SqliteDb();
   SqliteDb(const SqliteDb &) = delete;
@@ -97,6 +100,10 @@ public:
   std::int64_t lastInsertRowid() const;
   /// True while a BEGIN … COMMIT/ROLLBACK is open on this connection.
   bool inTransaction() const;
+  /// True when the connection cannot write (opened read-only, or the file is write-protected).
+  bool readOnly() const;
+  /// How long a statement waits for another program's lock before failing (default 5 s).
+  void setBusyTimeout(int milliseconds);
   const std::filesystem::path &path() const { return path_; }
 
 private:

@@ -8,11 +8,20 @@
 #include <fmt/format.h>
 
 #include <array>
+#include <cerrno>
+#include <cstring>
 #include <fstream>
 #include <set>
 #include <stdexcept>
 #include <unordered_set>
 #include <utility>
+
+#if defined(__unix__) || defined(__APPLE__)
+#include <fcntl.h>
+#include <sys/file.h>
+#include <unistd.h>
+#define CURVEBENCH_HAS_FLOCK 1
+#endif
 
 // Longer than most files here because it carries the schema text (the migrations) beside the
 // code that reads and writes it.
@@ -247,6 +256,11 @@ template <class F> void writeTransaction(SqliteDb &db, F &&write) {
 }
 
 void configure(SqliteDb &db) {
+  if (db.readOnly()) {
+    // A read-only connection cannot change the journal mode; a store is always in WAL mode.
+    db.exec("PRAGMA foreign_keys = ON");
+    return;
+  }
   // WAL: the GUI can read while an import writes, and a crash keeps the last commit intact.
   // synchronous=NORMAL is safe from corruption in WAL mode; at worst the newest commit is lost
   // on power failure, and an import can simply be re-run.
@@ -346,6 +360,41 @@ bool hasSqliteHeader(const fs::path &path) {
 
 [[noreturn]] void throwNotAStore(const fs::path &path) {
   throw StoreError(fmt::format("{} is not a Curvebench store", path.string()));
+}
+
+/// A file shorter than the size its own header records has lost its end (a copy cut short, a
+/// full disk during a copy). SQLite would read the missing pages as zeros and fail later, in
+/// the middle of some screen; refusing at open says plainly what is wrong. The header size is
+/// trusted only when valid (file format: "in-header database size", offsets 24/28/92) and
+/// when no write-ahead log is waiting: a checkpoint cut short legitimately leaves the main file
+/// short until the log is replayed.
+void refuseTruncated(const fs::path &path) {
+  std::error_code ec;
+  fs::path wal = path;
+  wal += "-wal";
+  if (fs::exists(wal, ec) && fs::file_size(wal, ec) > 0)
+    return;
+  std::ifstream in(path, std::ios::binary);
+  std::array<unsigned char, 100> h{};
+  in.read(reinterpret_cast<char *>(h.data()), h.size());
+  if (in.gcount() != 100)
+    return; // hasSqliteHeader() has already refused such a file
+  auto be32 = [&](std::size_t i) {
+    return (std::uint64_t{h[i]} << 24) | (std::uint64_t{h[i + 1]} << 16) |
+           (std::uint64_t{h[i + 2]} << 8) | std::uint64_t{h[i + 3]};
+  };
+  std::uint64_t pageSize = (std::uint64_t{h[16]} << 8) | h[17];
+  if (pageSize == 1)
+    pageSize = 65536;
+  const std::uint64_t pages = be32(28);
+  if (be32(24) != be32(92) || pages == 0)
+    return;
+  const auto size = fs::file_size(path, ec);
+  if (!ec && size < pageSize * pages)
+    throw StoreError(fmt::format("{} is damaged: the file is cut short ({} bytes of the {} its "
+                                 "header records); nothing was changed. Restore it from a "
+                                 "backup copy",
+                                 path.string(), size, pageSize * pages));
 }
 
 void backupBeforeMigration(SqliteDb &db, const fs::path &path, std::int64_t version) {
@@ -499,7 +548,14 @@ struct Store::Statements {
 Store::Store(fs::path path, std::unique_ptr<SqliteDb> db)
     : path_(std::move(path)), db_(std::move(db)), stmts_(std::make_unique<Statements>(*db_)) {}
 
-Store::~Store() = default;
+Store::~Store() {
+  stmts_.reset();
+  db_.reset(); // close the connection before the writer lock goes
+#ifdef CURVEBENCH_HAS_FLOCK
+  if (lockFd_ >= 0)
+    ::close(lockFd_);
+#endif
+}
 
 std::unique_ptr<Store> Store::create(const fs::path &path, const Property &property) {
   auto db = createFile(path, property, kSchemaVersion);
@@ -512,13 +568,47 @@ void Store::createAtVersionForTesting(const fs::path &path, const Property &prop
   createFile(path, property, version);
 }
 
-std::unique_ptr<Store> Store::open(const fs::path &path) {
+std::unique_ptr<Store> Store::open(const fs::path &path, Access access) {
   std::error_code ec;
   if (!fs::exists(path, ec))
     throw StoreError(fmt::format("{} does not exist", path.string()));
   if (!fs::is_regular_file(path, ec) || !hasSqliteHeader(path))
     throwNotAStore(path);
-  auto db = std::make_unique<SqliteDb>(path, SqliteDb::Mode::OpenExisting);
+  refuseTruncated(path);
+  int lockFd = -1;
+  std::string reason;
+  if (access == Access::ReadOnly)
+    reason = fmt::format("{} is open for reading only", path.string());
+  if (access == Access::WriterElseReadOnly) {
+#ifdef CURVEBENCH_HAS_FLOCK
+    // An advisory lock (flock) on the store file itself: independent of SQLite's own POSIX
+    // locks, dropped by the kernel when the holder closes the file or dies.
+    lockFd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+    if (lockFd < 0)
+      throw StoreError(fmt::format("cannot open {}: {}", path.string(), std::strerror(errno)));
+    if (::flock(lockFd, LOCK_EX | LOCK_NB) != 0) {
+      ::close(lockFd);
+      lockFd = -1;
+      access = Access::ReadOnly;
+      reason = fmt::format("{} is open in another Curvebench window, so this one can only read "
+                           "it; close the other window to make changes here",
+                           path.string());
+    }
+#endif
+  }
+  struct LockGuard {
+    int &fd;
+    ~LockGuard() {
+#ifdef CURVEBENCH_HAS_FLOCK
+      if (fd >= 0)
+        ::close(fd);
+#endif
+    }
+  } lockGuard{lockFd};
+  auto db = std::make_unique<SqliteDb>(
+      path, access == Access::ReadOnly ? SqliteDb::Mode::ReadOnly : SqliteDb::Mode::OpenExisting);
+  if (reason.empty() && db->readOnly())
+    reason = fmt::format("{} is write-protected, so it can only be read", path.string());
   // Nothing is written before these checks: a refused file stays exactly as it was.
   if (db->queryInt64("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = "
                      "'property'") == 0)
@@ -530,16 +620,30 @@ std::unique_ptr<Store> Store::open(const fs::path &path) {
     throw StoreError(fmt::format("{} was written by a newer Curvebench (schema {}; this build "
                                  "reads up to {}); update Curvebench to open it",
                                  path.string(), version, kSchemaVersion));
+  if (version < kSchemaVersion && !reason.empty())
+    throw StoreError(fmt::format("{} uses the older schema {} and must be upgraded, which needs "
+                                 "writing: {}",
+                                 path.string(), version, reason));
   if (version < kSchemaVersion)
     backupBeforeMigration(*db, path, version); // before configure(): WAL mode rewrites the header
   configure(*db);
   if (version < kSchemaVersion)
     migrate(*db, static_cast<int>(version), kSchemaVersion);
-  return std::unique_ptr<Store>(new Store(path, std::move(db)));
+  std::unique_ptr<Store> store(new Store(path, std::move(db)));
+  store->readOnlyReason_ = std::move(reason);
+  store->lockFd_ = std::exchange(lockFd, -1);
+  return store;
 }
 
 int Store::schemaVersion() const {
   return static_cast<int>(db_->queryInt64("PRAGMA user_version"));
+}
+
+bool Store::readOnly() const { return !readOnlyReason_.empty() || db_->readOnly(); }
+
+void Store::requireWritable() const {
+  if (!readOnlyReason_.empty())
+    throw StoreError(readOnlyReason_ + "; nothing was written");
 }
 
 // ---- transactions ----------------------------------------------------------------------------
@@ -548,6 +652,7 @@ Store::Transaction::Transaction(Store &store) : store_(store) {
   if (store_.db_->inTransaction())
     throw std::logic_error("Store::Transaction: a transaction is already open on this store; "
                            "transactions do not nest");
+  store_.requireWritable();
   store_.stmts_->forgetCodes();
   store_.db_->exec("BEGIN IMMEDIATE");
 }
@@ -594,6 +699,7 @@ Property Store::property() const {
 }
 
 void Store::setProperty(const Property &p) {
+  requireWritable();
   writeTransaction(*db_, [&] { writeProperty(*db_, p); });
 }
 
@@ -622,6 +728,7 @@ std::vector<Channel> Store::channels() const {
 }
 
 void Store::upsertRoomType(const RoomType &r) {
+  requireWritable();
   writeTransaction(*db_, [&] {
     auto st = db_->prepare("INSERT INTO room_types (code, name, rooms) VALUES (?1, ?2, ?3) "
                            "ON CONFLICT (code) DO UPDATE SET name = excluded.name, "
@@ -634,6 +741,7 @@ void Store::upsertRoomType(const RoomType &r) {
 }
 
 void Store::upsertSegment(const Segment &s) {
+  requireWritable();
   writeTransaction(*db_, [&] {
     auto st = db_->prepare(
         "INSERT INTO segments (code, name, yield_rank, colour) VALUES (?1, ?2, ?3, ?4) "
@@ -648,6 +756,7 @@ void Store::upsertSegment(const Segment &s) {
 }
 
 void Store::upsertChannel(const Channel &c) {
+  requireWritable();
   writeTransaction(*db_, [&] {
     auto st = db_->prepare("INSERT INTO channels (code, name) VALUES (?1, ?2) "
                            "ON CONFLICT (code) DO UPDATE SET name = excluded.name");
@@ -702,6 +811,7 @@ std::int64_t Store::reservationCount() const {
 // ---- other records ---------------------------------------------------------------------------
 
 void Store::addGroupBlock(const GroupBlock &b) {
+  requireWritable();
   writeTransaction(*db_, [&] {
     ensureCode(stmts_->addSegmentCode, b.segment);
     auto st = db_->prepare(
@@ -728,6 +838,7 @@ UpsertResult Store::upsertBlock(const BlockRecord &r) {
   if (!why.empty())
     throw StoreError(fmt::format("block {}: {}", b.id, why));
   UpsertResult result = UpsertResult::Unchanged;
+  requireWritable();
   writeTransaction(*db_, [&] {
     ensureCode(stmts_->addSegmentCode, b.segment);
     ensureCode(stmts_->addRoomTypeCode, r.roomType);
@@ -789,6 +900,7 @@ std::vector<GroupBlock> Store::groupBlocks() const {
 }
 
 void Store::addDenial(const Denial &d) {
+  requireWritable();
   writeTransaction(*db_, [&] {
     ensureCode(stmts_->addSegmentCode, d.segment);
     auto st = db_->prepare("INSERT INTO denials (requested_on, arrival, departure, rooms, "
@@ -818,6 +930,7 @@ void Store::addClosure(const SalesClosure &c) {
   if (c.reopenedOn && *c.reopenedOn < c.closedOn)
     throw StoreError(fmt::format("closure of {}: reopened {} before closed {}", c.night.toIso(),
                                  c.reopenedOn->toIso(), c.closedOn.toIso()));
+  requireWritable();
   writeTransaction(*db_, [&] {
     ensureCode(stmts_->addSegmentCode, c.segment);
     auto st = db_->prepare("INSERT INTO sales_closures (night, segment, closed_on, reopened_on) "
@@ -841,6 +954,7 @@ std::vector<SalesClosure> Store::closures() const {
 }
 
 std::int64_t Store::addEvent(const EventNote &e) {
+  requireWritable();
   if (e.to < e.from)
     throw StoreError(fmt::format("event \"{}\" ends ({}) before it starts ({})", e.label,
                                  e.to.toIso(), e.from.toIso()));
@@ -873,6 +987,7 @@ std::vector<StoredEvent> Store::storedEvents() const {
 }
 
 void Store::putEvent(std::int64_t id, const EventNote &e) {
+  requireWritable();
   if (e.to < e.from)
     throw StoreError(fmt::format("event \"{}\" ends ({}) before it starts ({})", e.label,
                                  e.to.toIso(), e.from.toIso()));
@@ -890,6 +1005,7 @@ void Store::putEvent(std::int64_t id, const EventNote &e) {
 }
 
 void Store::deleteEvent(std::int64_t id) {
+  requireWritable();
   writeTransaction(*db_, [&] {
     auto st = db_->prepare("DELETE FROM events WHERE id = ?1");
     st.bind(1, id);
@@ -934,12 +1050,14 @@ void deleteCode(SqliteDb &db, const char *table, const char *kind, const std::st
 } // namespace
 
 void Store::deleteRoomType(const std::string &code) {
+  requireWritable();
   deleteCode(*db_, "room_types", "room type", code,
              {{"reservations WHERE room_type = ?1", "reservation"},
               {"group_blocks WHERE room_type = ?1", "group block"}});
 }
 
 void Store::deleteSegment(const std::string &code) {
+  requireWritable();
   deleteCode(*db_, "segments", "segment", code,
              {{"reservations WHERE segment = ?1", "reservation"},
               {"group_blocks WHERE segment = ?1", "group block"},
@@ -949,6 +1067,7 @@ void Store::deleteSegment(const std::string &code) {
 }
 
 void Store::deleteChannel(const std::string &code) {
+  requireWritable();
   deleteCode(*db_, "channels", "channel", code,
              {{"reservations WHERE channel = ?1", "reservation"}});
 }
@@ -959,6 +1078,7 @@ std::int64_t Store::beginImport(const ImportLogEntry &e) { return insertLogEntry
 
 std::int64_t Store::insertLogEntry(const ImportLogEntry &e, std::string_view defaultOutcome) {
   std::int64_t id = 0;
+  requireWritable();
   writeTransaction(*db_, [&] {
     auto st = db_->prepare(kInsertLogEntry);
     bindLogEntry(st, e, defaultOutcome);
@@ -969,6 +1089,7 @@ std::int64_t Store::insertLogEntry(const ImportLogEntry &e, std::string_view def
 }
 
 void Store::finishImport(const ImportLogEntry &e) {
+  requireWritable();
   writeTransaction(*db_, [&] {
     auto st = db_->prepare(
         "UPDATE import_log SET file = ?1, sha256 = ?2, kind = ?3, profile = ?4, mode = ?5, "

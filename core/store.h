@@ -75,9 +75,25 @@ public:
 
   /// Creates a new store file; throws StoreError if the file exists.
   static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
+  /// How open() shares a store with other programs.
+  enum class Access {
+    ReadWrite, ///< read and write; other programs may too (SQLite locks each write)
+    ReadOnly,  ///< read only: every write throws StoreError; no migration (an older schema
+               ///< is refused)
+    /// The desktop program: read-write when no other program holds the store's writer lock
+    /// (an advisory lock on the file, released on close or crash), else read-only with
+    /// readOnlyReason() saying so. The lock is held for the life of the Store. (POSIX flock;
+    /// where there is none this opens read-write.)
+    WriterElseReadOnly,
+  };
+
   /// Opens an existing store. A newer schema is refused (StoreError naming both versions);
-  /// an older one is migrated after copying the file to "<path>.v<old>.bak".
-  static std::unique_ptr<Store> open(const std::filesystem::path &path);
+  /// an older one is migrated after copying the file to "<path>.v<old>.bak". A file that is
+  /// shorter than its own header says (truncated) or not a Curvebench store is refused before
+  /// anything is written; errors met later name the file and say what happened (damaged, in
+  /// use by another program, disk full, read-only).
+  static std::unique_ptr<Store> open(const std::filesystem::path &path,
+                                     Access access = Access::ReadWrite);
   /// Test hook: creates a store at an older schema `version` (1 … kSchemaVersion), writes the
   /// property and closes it, so tests can exercise the real migration path of open().
   static void createAtVersionForTesting(const std::filesystem::path &path, const Property &property,
@@ -88,6 +104,11 @@ public:
 
   const std::filesystem::path &path() const { return path_; }
   int schemaVersion() const;
+  /// True when this Store cannot write (Access::ReadOnly, a write-protected file, or another
+  /// program holding the writer lock under Access::WriterElseReadOnly).
+  bool readOnly() const;
+  /// Why the store is read-only, as a sentence for a status bar; empty when it is not.
+  const std::string &readOnlyReason() const { return readOnlyReason_; }
 
   /// RAII transaction: commits on commit(), rolls back on destruction otherwise.
   class Transaction {
@@ -167,10 +188,13 @@ public:
 private:
   Store(std::filesystem::path path, std::unique_ptr<SqliteDb> db);
   std::int64_t insertLogEntry(const ImportLogEntry &e, std::string_view defaultOutcome);
+  void requireWritable() const; ///< throws StoreError with readOnlyReason() when read-only
   std::filesystem::path path_;
   std::unique_ptr<SqliteDb> db_;
   struct Statements;
   std::unique_ptr<Statements> stmts_;
+  std::string readOnlyReason_;
+  int lockFd_ = -1; ///< the advisory writer lock (Access::WriterElseReadOnly), -1 = none
 };
 
 } // namespace cb

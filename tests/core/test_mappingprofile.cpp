@@ -56,31 +56,34 @@ TEST(MappingProfile, ShippedProfilesAreCompiledIn) {
   }
 }
 
+// Each finding points at the key it is about (line:column in the profile, core/jsonlocate.h).
 TEST(MappingProfile, UnknownKeysAreErrorsNamingTheKey) {
   cb::Findings f;
   EXPECT_FALSE(parse(profileWith(kBasicFields, R"("delimter": ";",)"), f));
-  EXPECT_TRUE(hasFinding(f, "p.json: unknown key \"delimter\" in the profile (allowed: version, "
-                            "name, description, delimiter, warn_unused_columns, fields)"));
+  EXPECT_TRUE(hasFinding(f,
+                         "p.json:1:2: unknown key \"delimter\" in the profile (allowed: version, "
+                         "name, description, delimiter, warn_unused_columns, fields)"));
   f.clear();
   EXPECT_FALSE(parse(profileWith(kBasicFields + R"(, "channel": {"colum": "ch"})"), f));
-  EXPECT_TRUE(hasFinding(f, "p.json: unknown key \"colum\" in fields.channel"));
+  EXPECT_TRUE(hasFinding(f, "p.json:4:105: unknown key \"colum\" in fields.channel"));
   f.clear();
   EXPECT_FALSE(parse(profileWith(kBasicFields + R"(, "guest_name": {"column": "g"})"), f));
-  EXPECT_TRUE(hasFinding(f, "p.json: unknown key \"guest_name\" in fields (native fields: "));
+  EXPECT_TRUE(hasFinding(f, "p.json:4:93: unknown key \"guest_name\" in fields (native fields: "));
   f.clear();
   auto parts = kBasicFields;
   parts.replace(parts.find(R"({"column": "in"})"), 16,
                 R"({"date_parts": {"year": "y", "month": "m", "day": "d", "week": "w"}})");
   EXPECT_FALSE(parse(profileWith(parts), f));
-  EXPECT_TRUE(hasFinding(f, "p.json: unknown key \"week\" in fields.arrival.date_parts (allowed: "
-                            "year, month, day)"));
+  EXPECT_TRUE(hasFinding(f,
+                         "p.json:3:74: unknown key \"week\" in fields.arrival.date_parts (allowed: "
+                         "year, month, day)"));
 }
 
 TEST(MappingProfile, StructuralMistakesAreNamed) {
   cb::Findings f;
   EXPECT_FALSE(parse(R"({"fields": {"reservation_id": {"column": "id"}}})", f));
-  EXPECT_TRUE(hasFinding(f, "p.json: fields has no entry for the required field \"status\""));
-  EXPECT_TRUE(hasFinding(f, "p.json: fields has no entry for the required field \"rate\""));
+  EXPECT_TRUE(hasFinding(f, "p.json:1:2: fields has no entry for the required field \"status\""));
+  EXPECT_TRUE(hasFinding(f, "p.json:1:2: fields has no entry for the required field \"rate\""));
   f.clear();
   EXPECT_FALSE(parse("{\"fields\": {\n  \"status\": }", f));
   ASSERT_EQ(f.size(), 1u);

@@ -498,7 +498,7 @@ TEST(ReservationImporter, BrokenProfileIsAUsageErrorWithItsPosition) {
   rep = cb::importReservations(*store, dataDir() / "broken/unknown_profile_column/input.csv", opt);
   EXPECT_FALSE(rep.written);
   EXPECT_TRUE(rep.ioOrUsageError);
-  EXPECT_TRUE(hasFinding(rep.findings, "typo.json: unknown key \"delimter\" in the profile"));
+  EXPECT_TRUE(hasFinding(rep.findings, "typo.json:1:2: unknown key \"delimter\" in the profile"));
   EXPECT_EQ(store->reservationCount(), 0);
 }
 
