@@ -581,12 +581,14 @@ std::unique_ptr<Store> Store::open(const fs::path &path, Access access) {
     reason = fmt::format("{} is open for reading only", path.string());
   if (access == Access::WriterElseReadOnly) {
 #ifdef CURVEBENCH_HAS_FLOCK
-    // An advisory lock (flock) on the store file itself: independent of SQLite's own POSIX
-    // locks, dropped by the kernel when the holder closes the file or dies.
-    lockFd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
-    if (lockFd < 0)
-      throw StoreError(fmt::format("cannot open {}: {}", path.string(), std::strerror(errno)));
-    if (::flock(lockFd, LOCK_EX | LOCK_NB) != 0) {
+    // An advisory lock (flock) on a file beside the store, "<store>.lock", dropped by the kernel
+    // when the holder closes it or dies. Not on the store file itself: closing any descriptor of
+    // the store would release every POSIX lock SQLite holds on it in this process. The lock file
+    // stays (removing it would race with another window taking it). A folder where it cannot be
+    // made gets no lock: the store then opens as ReadWrite would.
+    const std::string lockPath = path.string() + ".lock";
+    lockFd = ::open(lockPath.c_str(), O_RDWR | O_CREAT | O_CLOEXEC, 0644);
+    if (lockFd >= 0 && ::flock(lockFd, LOCK_EX | LOCK_NB) != 0) {
       ::close(lockFd);
       lockFd = -1;
       access = Access::ReadOnly;

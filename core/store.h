@@ -81,9 +81,10 @@ public:
     ReadOnly,  ///< read only: every write throws StoreError; no migration (an older schema
                ///< is refused)
     /// The desktop program: read-write when no other program holds the store's writer lock
-    /// (an advisory lock on the file, released on close or crash), else read-only with
-    /// readOnlyReason() saying so. The lock is held for the life of the Store. (POSIX flock;
-    /// where there is none this opens read-write.)
+    /// (an advisory lock on "<store>.lock" beside it, released on close or crash), else
+    /// read-only with readOnlyReason() saying so. The lock is held for the life of the Store.
+    /// (POSIX flock; where there is none, or the lock file cannot be made, this opens
+    /// read-write.)
     WriterElseReadOnly,
   };
 

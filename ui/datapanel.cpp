@@ -86,6 +86,7 @@ template <typename W> W *normal(W *w) {
 struct DataPanel::Impl {
   ImportDraft draft;
   std::filesystem::path store;
+  QString readOnly; ///< why the store cannot be written here; empty = writable
   FindingsPanel *findings = nullptr;
   QComboBox *kind = nullptr;
   QLineEdit *file = nullptr;
@@ -537,8 +538,11 @@ void DataPanel::draftChanged(const QString &note) {
   const bool idle = d_->watcher == nullptr;
   const bool canRun = idle && !d_->store.empty() && !dr.file().isEmpty();
   d_->validate->setEnabled(canRun);
-  d_->strict->setEnabled(canRun && dr.ready());
-  d_->lenient->setEnabled(canRun && dr.ready());
+  d_->strict->setEnabled(canRun && dr.ready() && d_->readOnly.isEmpty());
+  d_->lenient->setEnabled(canRun && dr.ready() && d_->readOnly.isEmpty());
+  for (QPushButton *b : {d_->strict, d_->lenient})
+    b->setToolTip(d_->readOnly.isEmpty() ? QString()
+                                         : QStringLiteral("Read-only: %1").arg(d_->readOnly));
   d_->saveProfile->setEnabled(idle);
   d_->choose->setEnabled(idle);
   if (d_->store.empty())
@@ -557,9 +561,18 @@ void DataPanel::cancel() {
     d_->control->cancel = true;
 }
 
+void DataPanel::setReadOnly(bool readOnly, const QString &reason) {
+  d_->readOnly = readOnly ? (reason.isEmpty() ? QStringLiteral("read-only") : reason) : QString();
+  draftChanged({});
+}
+
 void DataPanel::startJob(bool dryRun, bool lenient) {
   if (d_->watcher || d_->store.empty() || d_->draft.file().isEmpty())
     return;
+  if (!dryRun && !d_->readOnly.isEmpty()) {
+    d_->result->setText(QStringLiteral("Not written: %1").arg(d_->readOnly));
+    return;
+  }
   // A validation reads every row as a lenient import would (so the counts cover the good rows
   // too) and writes nothing.
   const cb::ImportOptions options =

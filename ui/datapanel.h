@@ -32,6 +32,8 @@ public:
 
   /// The open store (imports go there; its import log is read again).
   void setStore(const std::filesystem::path &store);
+  /// Another window writes this store: validation still works, Commit is refused with `reason`.
+  void setReadOnly(bool readOnly, const QString &reason = {});
   /// Where import findings are listed (not owned).
   void setFindingsPanel(FindingsPanel *panel);
   /// The store's data-health findings, as the window's health check found them.

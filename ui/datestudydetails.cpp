@@ -140,6 +140,7 @@ DateStudyDetails::DateStudyDetails(QWidget *parent) : QWidget(parent) {
   ovReason_ = new QLineEdit;
   ovReason_->setPlaceholderText(tr("Why (e.g. city marathon announced)"));
   auto *save = new QPushButton(tr("Save override"));
+  ovSave_ = save;
   form->addRow(tr("Final rooms"), ovValue_);
   form->addRow(tr("Reason"), ovReason_);
   ovLay->addLayout(form);
@@ -243,6 +244,13 @@ void DateStudyDetails::setReservations(const QList<ReservationRowText> &rows,
 }
 
 void DateStudyDetails::setDrillText(const QString &text) { drill_->setText(text); }
+void DateStudyDetails::setOverrideEditable(bool editable, const QString &why) {
+  for (QWidget *w : std::initializer_list<QWidget *>{ovValue_, ovReason_, ovSave_}) {
+    w->setEnabled(editable);
+    w->setToolTip(editable ? QString() : why);
+  }
+}
+
 void DateStudyDetails::clearOverrideReason() { ovReason_->clear(); }
 void DateStudyDetails::showTab(Tab tab) { tabs_->setCurrentIndex(tab); }
 DateStudyDetails::Tab DateStudyDetails::currentTab() const {

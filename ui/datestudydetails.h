@@ -58,6 +58,8 @@ public:
   void setReservations(const QList<ReservationRowText> &rows, const QString &summary);
   void setDrillText(const QString &text);
   void clearOverrideReason();
+  /// Enables or disables the override form (disabled with `why` as its tooltip).
+  void setOverrideEditable(bool editable, const QString &why = {});
   void showTab(Tab tab);
   Tab currentTab() const;
 
@@ -85,6 +87,7 @@ private:
   QLabel *segNotes_, *resSummary_;
   QDoubleSpinBox *ovValue_;
   QLineEdit *ovReason_;
+  QPushButton *ovSave_ = nullptr;
   QListWidget *ovHistory_;
   QPushButton *drill_;
 };

@@ -63,6 +63,7 @@ QColor segmentColour(const cb::Segment &s, int i) {
 } // namespace
 
 struct DateStudyPanel::Impl {
+  QString readOnly; ///< why overrides cannot be saved here; empty = writable
   DateStudyPanel *self = nullptr;
   WorkbenchSession *session = nullptr;
   std::unique_ptr<DateStudyModel> model;
@@ -566,9 +567,18 @@ QString DateStudyPanel::forecastText() const { return d_->details->forecastText(
 qint64 DateStudyPanel::lastNightSwitchMicros() const { return d_->nightMicros; }
 qint64 DateStudyPanel::lastMethodSwitchMicros() const { return d_->methodMicros; }
 
+void DateStudyPanel::setReadOnly(bool readOnly, const QString &reason) {
+  d_->readOnly = readOnly ? (reason.isEmpty() ? tr("read-only") : reason) : QString();
+  d_->details->setOverrideEditable(!readOnly, tr("Read-only: %1").arg(d_->readOnly));
+}
+
 bool DateStudyPanel::saveOverride(double value, const QString &reason) {
   if (!d_->model)
     return false;
+  if (!d_->readOnly.isEmpty()) {
+    d_->status->setText(tr("Override not saved: %1").arg(d_->readOnly));
+    return false;
+  }
   if (reason.trimmed().isEmpty()) {
     d_->status->setText(tr("An override needs a reason."));
     return false;

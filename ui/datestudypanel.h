@@ -54,6 +54,8 @@ public:
   qint64 lastMethodSwitchMicros() const;
   /// What the override form's Save does; returns false (and says why) when it cannot save.
   bool saveOverride(double value, const QString &reason);
+  /// Another window writes this store: overrides are refused with `reason` (shown on the form).
+  void setReadOnly(bool readOnly, const QString &reason = {});
   /// The drill-down: lists the reservations behind the OTB figure and shows them.
   void showReservations();
 

@@ -86,7 +86,7 @@ MainWindow::MainWindow(QWidget *parent)
       accuracy_(new AccuracyPanel), data_(new DataPanel), asOfEdit_(new QDateEdit),
       asOfNote_(new QLabel), progress_(new QProgressBar),
       findingsDock_(new QDockWidget(QStringLiteral("Findings"))), findings_(new FindingsPanel),
-      findingsButton_(new QToolButton), cancelImport_(new QToolButton) {
+      findingsButton_(new QToolButton), cancelImport_(new QToolButton), readOnlyLabel_(new QLabel) {
   setWindowTitle(QStringLiteral("Curvebench"));
   setAcceptDrops(true);
 
@@ -149,6 +149,9 @@ MainWindow::MainWindow(QWidget *parent)
   findingsButton_->setAutoRaise(true);
   statusBar()->addPermanentWidget(progress_);
   statusBar()->addPermanentWidget(cancelImport_);
+  readOnlyLabel_->setStyleSheet(QStringLiteral("QLabel { background: #fff3d6; padding: 0 6px; }"));
+  readOnlyLabel_->hide();
+  statusBar()->addPermanentWidget(readOnlyLabel_);
   statusBar()->addPermanentWidget(findingsButton_);
   connect(findingsButton_, &QToolButton::clicked, this,
           [this] { findingsDock_->setVisible(!findingsDock_->isVisible()); });
@@ -415,6 +418,11 @@ void MainWindow::reloadAfterEdit() {
 }
 
 void MainWindow::importCsv(const std::filesystem::path &file) {
+  if (session_ && !readOnlyReason_.isEmpty()) {
+    statusBar()->showMessage(QStringLiteral("Not imported: %1").arg(readOnlyReason_), 10000);
+    emit importFinished(false);
+    return;
+  }
   if (!session_ || importing_) {
     statusBar()->showMessage(session_ ? QStringLiteral("An import is already running")
                                       : QStringLiteral("Open a store first, then drop the CSV"),
@@ -476,8 +484,28 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   healthChecked_ = false;
   propertyEditor_->showSession(*session_);
   const QString path = QString::fromStdString(session_->path().string());
-  setWindowTitle(
-      QStringLiteral("Curvebench — %1").arg(QString::fromStdString(session_->property().name)));
+  // The writer lock: kept across reloads of the same store, taken anew for another one.
+  if (!writer_ || writer_->path() != session_->path()) {
+    writer_.reset();
+    try {
+      writer_ = cb::Store::open(session_->path(), cb::Store::Access::WriterElseReadOnly);
+    } catch (const std::exception &) {
+      // The session itself opened; a store that cannot be locked stays writable as before.
+    }
+  }
+  readOnlyReason_ = writer_ && writer_->readOnly()
+                        ? QString::fromStdString(writer_->readOnlyReason())
+                        : QString();
+  const bool readOnly = !readOnlyReason_.isEmpty();
+  readOnlyLabel_->setText(QStringLiteral("Read-only"));
+  readOnlyLabel_->setToolTip(readOnlyReason_);
+  readOnlyLabel_->setVisible(readOnly);
+  data_->setReadOnly(readOnly, readOnlyReason_);
+  dateStudy_->setReadOnly(readOnly, readOnlyReason_);
+  propertyEditor_->setReadOnly(readOnly, readOnlyReason_);
+  setWindowTitle(QStringLiteral("Curvebench — %1%2")
+                     .arg(QString::fromStdString(session_->property().name),
+                          readOnly ? QStringLiteral(" (read-only)") : QString()));
   {
     QSettings s = settings();
     QStringList recent = s.value(QStringLiteral("recentStores")).toStringList();
@@ -495,9 +523,10 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
   }
   asOfNote_->setText(QStringLiteral("   newest data: %1")
                          .arg(toQDate(session_->newestActivity()).toString(kDateFormat)));
-  setIdle(QStringLiteral("%1 reservations loaded; data as of %2")
+  setIdle(QStringLiteral("%1 reservations loaded; data as of %2%3")
               .arg(QString::fromStdString(cb::formatCount(session_->summary().reservations)),
-                   toQDate(session_->readingDate()).toString(kDateFormat)));
+                   toQDate(session_->readingDate()).toString(kDateFormat),
+                   readOnly ? QStringLiteral(" · read-only: ") + readOnlyReason_ : QString()));
   horizon_->setSession(session_.get());
   dateStudy_->setSession(session_.get());
   compare_->setSession(nullptr); // the old session is gone; recomputed when shown

@@ -1,7 +1,8 @@
 // The workbench window: opens a store off the UI thread and shows its screens — Horizon (the next
 // N nights), Date Study (one night), Segment Compare, Year Map, Accuracy, Group offer, Data
-// (imports) and Property (the editor) — under a prominent, changeable reading date ("As of"). Remembers geometry, the last screen and recent stores; a CSV dropped on the window is
-// imported into the open store in the background, its findings listed in a dock, not a dialog.
+// (imports) and Property (the editor) — under a prominent, changeable reading date ("As of").
+// Remembers geometry, the last screen and recent stores; a CSV dropped on the window is imported
+// into the open store in the background, its findings listed in a dock, not a dialog.
 #pragma once
 
 #include "ui/importcontrol.h"
@@ -25,7 +26,8 @@ class QDockWidget;
 // Forward declarations only: moc of Qt 6.4 cannot parse the C++20 library headers core uses.
 namespace cb {
 class Date;
-}
+class Store;
+} // namespace cb
 
 namespace cbui {
 
@@ -93,6 +95,8 @@ public:
   void cancelImport();
   /// The night Date Study shows.
   QDate studiedNight() const;
+  /// Why this window may not write the open store (another window holds it), or empty.
+  QString readOnlyReason() const { return readOnlyReason_; }
 
 signals:
   void sessionLoaded();
@@ -143,6 +147,11 @@ private:
   std::shared_ptr<ImportControl> importControl_; ///< the running import's cancel flag, progress
   bool importing_ = false;
   bool healthChecked_ = false;
+  /// The open store's writer lock (Store::Access::WriterElseReadOnly): held while this window
+  /// shows the store, so a second window on it opens read-only and says so.
+  std::unique_ptr<cb::Store> writer_;
+  QString readOnlyReason_;
+  QLabel *readOnlyLabel_;
 };
 
 } // namespace cbui

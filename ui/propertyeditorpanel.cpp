@@ -103,7 +103,14 @@ PropertyEditorPanel::PropertyEditorPanel(QWidget *parent)
   sections_->setObjectName(QStringLiteral("propertySections"));
   sections_->setMaximumWidth(220);
   layout->addWidget(sections_);
-  layout->addWidget(pages_, 1);
+  auto *right = new QVBoxLayout;
+  readOnlyNote_ = new QLabel;
+  readOnlyNote_->setWordWrap(true);
+  readOnlyNote_->setStyleSheet(QStringLiteral("QLabel { background: #fff3d6; padding: 6px; }"));
+  readOnlyNote_->hide();
+  right->addWidget(readOnlyNote_);
+  right->addWidget(pages_, 1);
+  layout->addLayout(right, 1);
 
   pages_->addWidget(buildGeneral());
   pages_->addWidget(buildCapacity());
@@ -192,10 +199,20 @@ void PropertyEditorPanel::hideEvent(QHideEvent *event) {
   updateActions();
 }
 
+void PropertyEditorPanel::setReadOnly(bool readOnly, const QString &reason) {
+  readOnly_ = readOnly;
+  pages_->setEnabled(!readOnly);
+  readOnlyNote_->setText(QStringLiteral("Read-only: %1. The settings are shown but cannot be "
+                                        "changed in this window.")
+                             .arg(reason));
+  readOnlyNote_->setVisible(readOnly);
+  updateActions();
+}
+
 void PropertyEditorPanel::updateActions() {
   QUndoStack *stack = model_->undoStack();
-  undoAction_->setEnabled(shown_ && stack->canUndo());
-  redoAction_->setEnabled(shown_ && stack->canRedo());
+  undoAction_->setEnabled(shown_ && !readOnly_ && stack->canUndo());
+  redoAction_->setEnabled(shown_ && !readOnly_ && stack->canRedo());
   undoAction_->setText(stack->canUndo() ? QStringLiteral("&Undo %1").arg(stack->undoText())
                                         : QStringLiteral("&Undo"));
   redoAction_->setText(stack->canRedo() ? QStringLiteral("&Redo %1").arg(stack->redoText())

@@ -40,6 +40,8 @@ public:
   /// Edit ▸ Undo / Redo: enabled while this screen is shown and there is something to undo.
   QAction *undoAction() const { return undoAction_; }
   QAction *redoAction() const { return redoAction_; }
+  /// Another window writes this store: the pages show the settings disabled, with `reason`.
+  void setReadOnly(bool readOnly, const QString &reason = {});
   /// Shows section `index` (PropertyEditModel::Section).
   void showSection(int index);
   /// The refusal shown on a section's page (empty when none), for tests.
@@ -75,6 +77,8 @@ private:
   std::map<int, QLabel *> messages_;
   QAction *undoAction_, *redoAction_;
   bool shown_ = false;
+  bool readOnly_ = false;
+  QLabel *readOnlyNote_ = nullptr;
 
   QLineEdit *name_ = nullptr, *currency_ = nullptr;
   QSpinBox *capacity_ = nullptr;

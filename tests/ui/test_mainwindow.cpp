@@ -12,6 +12,7 @@
 #include "ui/workbenchsession.h"
 
 #include <QLabel>
+#include <QPushButton>
 #include <QSignalSpy>
 #include <QSortFilterProxyModel>
 #include <QStandardPaths>
@@ -172,6 +173,54 @@ private slots:
     QTest::keyClick(table, Qt::Key_Return);
     QCOMPARE(w.currentScreen(), cbui::MainWindow::DateStudyScreen);
     QCOMPARE(w.studiedNight(), sixth.data(cbui::HorizonModel::kNightRole).toDate());
+  }
+
+  // Two windows on one store: the second reads it but may not write it, and says so; once the
+  // first is gone, the store opens writable again.
+  void secondWindowOnAStoreIsReadOnly() {
+    cbtest::TempDir dir;
+    const auto path = dir / "t.curvebench";
+    fillStore(path);
+    auto first = std::make_unique<cbui::MainWindow>();
+    QSignalSpy firstLoaded(first.get(), &cbui::MainWindow::sessionLoaded);
+    first->openStore(path);
+    QVERIFY(firstLoaded.wait(10000));
+    QVERIFY(first->readOnlyReason().isEmpty());
+
+    cbui::MainWindow second;
+    QSignalSpy loaded(&second, &cbui::MainWindow::sessionLoaded);
+    second.openStore(path);
+    QVERIFY(loaded.wait(10000));
+    QVERIFY(second.readOnlyReason().contains(QStringLiteral("open in another Curvebench window")));
+    QVERIFY(second.windowTitle().endsWith(QStringLiteral("(read-only)")));
+    // It shows the data…
+    QVERIFY(second.summaryPanel()->text().contains(QStringLiteral("Test House")));
+    // …but an override and a dropped import are refused, and the store keeps its 5 rows.
+    auto saveButton = [](cbui::MainWindow &w) -> QPushButton * {
+      for (QPushButton *b : w.dateStudy()->findChildren<QPushButton *>())
+        if (b->text() == QStringLiteral("Save override"))
+          return b;
+      return nullptr;
+    };
+    QVERIFY(saveButton(*first) && saveButton(second));
+    QVERIFY(saveButton(*first)->isEnabled());
+    QVERIFY(!saveButton(second)->isEnabled());
+    second.showNight(d("2026-06-13"));
+    QVERIFY(!second.dateStudy()->saveOverride(12, QStringLiteral("fair")));
+    QSignalSpy imported(&second, &cbui::MainWindow::importFinished);
+    cbtest::writeFile(dir / "more.csv", "id\n");
+    second.importCsv(dir / "more.csv");
+    QCOMPARE(imported.size(), 1);
+    QCOMPARE(imported.front().front().toBool(), false);
+    QCOMPARE(cb::Store::open(path)->reservationCount(), std::int64_t(5));
+
+    // The first window closes: a window opened now may write again.
+    first.reset();
+    cbui::MainWindow third;
+    QSignalSpy thirdLoaded(&third, &cbui::MainWindow::sessionLoaded);
+    third.openStore(path);
+    QVERIFY(thirdLoaded.wait(10000));
+    QVERIFY(third.readOnlyReason().isEmpty());
   }
 
   void badStoreReportsFailure() {
