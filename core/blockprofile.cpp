@@ -102,6 +102,15 @@ std::optional<BlockProfile> BlockProfile::parse(std::string_view json, const std
     findings.push_back(Finding{Severity::Error, label, line, column,
                                "the blocks profile is not valid JSON: " + what});
     return std::nullopt;
+  } catch (const Json::exception &e) {
+    // Valid syntax the parser still refuses, e.g. a number too large for a double (found by
+    // fuzz_profile): reported, not thrown.
+    std::string what = e.what();
+    if (auto cut = what.find("] "); cut != std::string::npos)
+      what.erase(0, cut + 2);
+    findings.push_back(
+        Finding{Severity::Error, label, 0, 0, "the blocks profile is not usable JSON: " + what});
+    return std::nullopt;
   }
   if (!j.is_object()) {
     error("the blocks profile is not a JSON object");

@@ -405,6 +405,14 @@ std::optional<MappingProfile> MappingProfile::parse(std::string_view json, const
     auto [line, column] = textPosition(json, e.byte);
     p.error("the profile is not valid JSON: " + what, line, column);
     return std::nullopt;
+  } catch (const Json::exception &e) {
+    // Valid syntax the parser still refuses, e.g. a number too large for a double (found by
+    // fuzz_profile): reported, not thrown.
+    std::string what = e.what();
+    if (auto cut = what.find("] "); cut != std::string::npos)
+      what.erase(0, cut + 2);
+    p.error("the profile is not usable JSON: " + what, 0, 0);
+    return std::nullopt;
   }
   if (!j.is_object()) {
     p.error("a mapping profile must be a JSON object with \"fields\"", 1, 1);

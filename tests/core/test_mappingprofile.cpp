@@ -1,5 +1,7 @@
 #include "core/mappingprofile.h"
 
+#include "core/blockprofile.h"
+
 #include "testsupport.h"
 
 #include <gtest/gtest.h>
@@ -57,6 +59,22 @@ TEST(MappingProfile, ShippedProfilesAreCompiledIn) {
 }
 
 // Each finding points at the key it is about (line:column in the profile, core/jsonlocate.h).
+// Regression of a crash found by fuzz_profile: a number too large for a double is valid JSON
+// syntax that the parser refuses with out_of_range; it used to escape as an exception.
+TEST(MappingProfile, NumberTooLargeIsAFindingNotACrash) {
+  const std::string text = "8612e3733707602030";
+  cb::Findings f;
+  EXPECT_FALSE(parse(text, f));
+  ASSERT_EQ(f.size(), 1u);
+  EXPECT_NE(f[0].message.find("not usable JSON"), std::string::npos) << f[0].message;
+  cbtest::TempDir dir;
+  cbtest::writeFile(dir / "blocks.json", text);
+  cb::Findings g;
+  EXPECT_FALSE(cb::BlockProfile::load((dir / "blocks.json").string(), g));
+  ASSERT_FALSE(g.empty());
+  EXPECT_NE(g.back().message.find("not usable JSON"), std::string::npos) << g.back().message;
+}
+
 TEST(MappingProfile, UnknownKeysAreErrorsNamingTheKey) {
   cb::Findings f;
   EXPECT_FALSE(parse(profileWith(kBasicFields, R"("delimter": ";",)"), f));
