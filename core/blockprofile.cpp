@@ -88,17 +88,7 @@ std::optional<BlockProfile> BlockProfile::parse(std::string_view json, const std
     std::string what = e.what();
     if (auto cut = what.rfind(": "); cut != std::string::npos)
       what.erase(0, cut + 2);
-    std::size_t at = e.byte == 0 ? 0 : e.byte - 1;
-    std::int64_t line = 1;
-    int column = 1;
-    for (std::size_t i = 0; i < at && i < json.size(); ++i) {
-      if (json[i] == '\n') {
-        ++line;
-        column = 1;
-      } else if ((static_cast<unsigned char>(json[i]) & 0xC0) != 0x80) {
-        ++column;
-      }
-    }
+    const auto [line, column] = textPosition(json, e.byte == 0 ? 0 : e.byte - 1);
     findings.push_back(Finding{Severity::Error, label, line, column,
                                "the blocks profile is not valid JSON: " + what});
     return std::nullopt;

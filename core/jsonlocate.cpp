@@ -5,9 +5,7 @@
 #include <cstddef>
 
 namespace cb {
-namespace {
-
-std::pair<std::int64_t, int> positionOf(std::string_view text, std::size_t at) {
+std::pair<std::int64_t, int> textPosition(std::string_view text, std::size_t at) {
   std::int64_t line = 1;
   int column = 1;
   for (std::size_t i = 0; i < at && i < text.size(); ++i) {
@@ -20,6 +18,8 @@ std::pair<std::int64_t, int> positionOf(std::string_view text, std::size_t at) {
   }
   return {line, column};
 }
+
+namespace {
 
 /// The split of "a.b.c" at dots.
 std::vector<std::string> dotted(std::string_view s) {
@@ -100,7 +100,7 @@ std::pair<std::int64_t, int> jsonKeyPosition(std::string_view text,
   }
   if (bestDepth == 0)
     return {0, 0};
-  return positionOf(text, bestAt);
+  return textPosition(text, bestAt);
 }
 
 std::vector<std::string> profileKeyPath(std::string_view m) {

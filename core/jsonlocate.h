@@ -9,6 +9,10 @@
 
 namespace cb {
 
+/// Line and column (1-based; columns count UTF-8 characters, as in CSV findings) of the byte at
+/// 0-based offset `at` of `text` (clamped to its end).
+std::pair<std::int64_t, int> textPosition(std::string_view text, std::size_t at);
+
 /// Line and column (1-based; columns count UTF-8 characters, as in CSV findings) of the key that
 /// `path` names, object keys from the top (e.g. {"fields", "rate", "colum"}); when the whole path
 /// is not there, of the deepest part of it that is. {0, 0} when not even the first key is found

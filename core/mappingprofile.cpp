@@ -133,23 +133,6 @@ std::optional<double> parseDecimal(std::string_view s) {
   return v;
 }
 
-/// Line and column (characters, 1-based, as in CSV findings) of a parse_error's byte position,
-/// which is the 1-based index of the last character read, or one past the end of the input.
-std::pair<std::int64_t, int> textPosition(std::string_view text, std::size_t byte) {
-  const std::size_t at = std::min(byte == 0 ? 0 : byte - 1, text.size());
-  std::int64_t line = 1;
-  int column = 1;
-  for (std::size_t i = 0; i < at; ++i) {
-    if (text[i] == '\n') {
-      ++line;
-      column = 1;
-    } else if ((static_cast<unsigned char>(text[i]) & 0xC0) != 0x80) {
-      ++column;
-    }
-  }
-  return {line, column};
-}
-
 /// Reads profile JSON into specs, collecting findings on the profile file.
 class ProfileParser {
 public:
@@ -402,7 +385,8 @@ std::optional<MappingProfile> MappingProfile::parse(std::string_view json, const
     if (what.rfind("parse error", 0) == 0)
       if (auto cut = what.find(": "); cut != std::string::npos)
         what.erase(0, cut + 2);
-    auto [line, column] = textPosition(json, e.byte);
+    // e.byte: 1-based index of the last character read, or one past the end.
+    auto [line, column] = textPosition(json, e.byte == 0 ? 0 : e.byte - 1);
     p.error("the profile is not valid JSON: " + what, line, column);
     return std::nullopt;
   } catch (const Json::exception &e) {
