@@ -65,9 +65,11 @@ int runInfo(const std::string &storePath) {
   return kOk;
 }
 
-int runSample(const std::string &outDir, const std::string &storePath) {
+int runSample(const std::string &outDir, const std::string &storePath, const std::string &size) {
   // Simulated once: with --store the store builder writes the same files it imports.
-  cb::SampleProperty sample = cb::simulateProperty();
+  const cb::SimulatorConfig config =
+      size == "1m" ? cb::millionBookingConfig() : cb::SimulatorConfig{};
+  cb::SampleProperty sample = cb::simulateProperty(config);
   std::optional<cb::ImportReport> built;
   if (storePath.empty())
     cb::writeSampleFiles(sample, outDir);
@@ -85,6 +87,7 @@ int runSample(const std::string &outDir, const std::string &storePath) {
 
 struct StoreArgs {
   std::string store, file, name, currency = "EUR", profile, rejects, outDir, sampleStore;
+  std::string sampleSize = "sample";
   int capacity = 0;
   bool strict = false, lenient = false;
 };
@@ -126,7 +129,12 @@ void addStoreVerbs(CLI::App &app, VerbList &verbs) {
   auto *sample = app.add_subcommand("sample", "Write the sample property's files (byte-identical)");
   sample->add_option("OUT_DIR", a->outDir, "Folder to write")->required();
   sample->add_option("--store", a->sampleStore, "Also build a ready store at this path");
-  verbs.push_back({sample, [a] { return runSample(a->outDir, a->sampleStore); }});
+  sample->add_option("--size", a->sampleSize,
+                     "sample (default: 150 rooms, ~55,000 reservations) or 1m (the benchmark "
+                     "property: 600 rooms, five years, ~1,000,000 reservations, ~150 MB of CSV)")
+      ->check(CLI::IsMember({"sample", "1m"}));
+  verbs.push_back(
+      {sample, [a] { return runSample(a->outDir, a->sampleStore, a->sampleSize); }});
 }
 
 } // namespace cbcli

@@ -11,6 +11,7 @@
 #include <cerrno>
 #include <cstring>
 #include <fstream>
+#include <functional>
 #include <set>
 #include <stdexcept>
 #include <unordered_set>
@@ -451,6 +452,49 @@ void bindReservation(SqliteStatement &st, const Reservation &r, std::int64_t imp
     st.bind(14, nullptr);
 }
 
+// Hand-written: two 64-bit hashes over one canonical byte string of the fields. No Debian
+// -dev package we already use offers a 128-bit hash; libstdc++'s std::hash (64-bit MurmurHash)
+// gives one half, FNV-1a (public domain, Fowler/Noll/Vo) the other.
+std::uint64_t fnv1a64(std::string_view bytes) {
+  std::uint64_t h = 14695981039346656037ull;
+  for (unsigned char c : bytes) {
+    h ^= c;
+    h *= 1099511628211ull;
+  }
+  return h;
+}
+
+} // namespace
+
+ReservationDigest digestOf(const Reservation &r) {
+  // Fixed-width numbers, then each text with its length, so no two rows share the bytes.
+  thread_local std::string bytes; // reused: a million rows, no allocation each
+  bytes.clear();
+  auto addInt = [&](std::int64_t v) { bytes.append(reinterpret_cast<const char *>(&v), sizeof v); };
+  auto addText = [&](const std::string &t) {
+    addInt(static_cast<std::int64_t>(t.size()));
+    bytes += t;
+  };
+  addInt(static_cast<std::int64_t>(r.status));
+  addInt(r.bookedOn.days());
+  addInt(r.cancelledOn ? std::int64_t{r.cancelledOn->days()} : std::int64_t{-1} << 40);
+  addInt(r.arrival.days());
+  addInt(r.departure.days());
+  addInt(r.rooms);
+  std::int64_t rateBits = 0;
+  static_assert(sizeof rateBits == sizeof r.rate);
+  std::memcpy(&rateBits, &r.rate, sizeof rateBits);
+  addInt(r.rate == 0.0 ? 0 : rateBits); // -0.0 and 0.0 are stored alike
+  addText(r.roomType);
+  addText(r.segment);
+  addText(r.channel);
+  addText(r.currency);
+  addText(r.blockId);
+  return ReservationDigest{std::hash<std::string_view>{}(bytes), fnv1a64(bytes)};
+}
+
+namespace {
+
 Reservation readReservation(const SqliteStatement &st) {
   Reservation r;
   r.id = st.columnText(0);
@@ -771,19 +815,36 @@ void Store::upsertChannel(const Channel &c) {
 // ---- reservations ----------------------------------------------------------------------------
 
 UpsertResult Store::upsertReservation(const Reservation &r, std::int64_t importId) {
+  return upsertReservation(r, importId, false);
+}
+
+UpsertResult Store::upsertReservation(const Reservation &r, std::int64_t importId, bool stored) {
   if (!db_->inTransaction())
     throw std::logic_error("Store::upsertReservation must run inside a Store::Transaction");
   auto &s = *stmts_;
   s.ensure(0, s.addRoomTypeCode, r.roomType);
   s.ensure(1, s.addSegmentCode, r.segment);
   s.ensure(2, s.addChannelCode, r.channel);
-  bindReservation(s.insertReservation, r, importId);
-  s.insertReservation.step();
-  if (db_->changes() == 1)
-    return UpsertResult::Added;
+  if (!stored) {
+    bindReservation(s.insertReservation, r, importId);
+    s.insertReservation.step();
+    if (db_->changes() == 1)
+      return UpsertResult::Added;
+  }
   bindReservation(s.updateReservation, r, importId);
   s.updateReservation.step();
   return db_->changes() == 1 ? UpsertResult::Updated : UpsertResult::Unchanged;
+}
+
+void Store::visitReservationDigests(
+    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) const {
+  // Table order (rowid), not id order: no index lookups, and the caller does not care.
+  auto st = db_->prepare(fmt::format("SELECT {} FROM reservations", kReservationColumns));
+  while (st.step()) {
+    Reservation r = readReservation(st);
+    const ReservationDigest d = digestOf(r);
+    visit(std::move(r.id), d);
+  }
 }
 
 std::vector<Reservation> Store::reservations() const {

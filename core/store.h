@@ -6,6 +6,7 @@
 
 #include <cstdint>
 #include <filesystem>
+#include <functional>
 #include <map>
 #include <memory>
 #include <optional>
@@ -53,6 +54,16 @@ struct StoredEvent {
 
 /// Outcome of writing one reservation.
 enum class UpsertResult { Added, Updated, Unchanged };
+
+/// A 128-bit digest of every field of a reservation an import can change (all but the id and the
+/// import that wrote it): two independent 64-bit hashes of the same bytes, so two different rows
+/// share a digest with a chance of about 2^-128. An import compares digests instead of asking the
+/// store row by row (Store::reservationDigests).
+struct ReservationDigest {
+  std::uint64_t a = 0, b = 0;
+  friend bool operator==(const ReservationDigest &, const ReservationDigest &) = default;
+};
+ReservationDigest digestOf(const Reservation &r);
 
 /// Counts shown by `curvebench info` and the GUI summary.
 struct StoreSummary {
@@ -145,6 +156,12 @@ public:
   // segment / channel / room-type rows (code only) so foreign keys hold. importId is the
   // import_log row that wrote it (0 = none); an unchanged row keeps its earlier importId.
   UpsertResult upsertReservation(const Reservation &r, std::int64_t importId);
+  /// The same, when the caller already knows whether the id is stored (from
+  /// reservationDigests): a new id is inserted at once, a stored one updated at once.
+  UpsertResult upsertReservation(const Reservation &r, std::int64_t importId, bool stored);
+  /// Calls `visit` with every stored reservation's id and digest, read in one pass of the table.
+  void visitReservationDigests(
+      const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) const;
   std::vector<Reservation> reservations() const; ///< ordered by id
   std::optional<Reservation> reservation(const std::string &id) const;
   std::int64_t reservationCount() const;

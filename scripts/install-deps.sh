@@ -9,7 +9,7 @@ packages=(
   libgtest-dev libgmock-dev libcli11-dev libhowardhinnant-date-dev nlohmann-json3-dev
   libfmt-dev libboost-math-dev libboost-dev libssl-dev clang-format libbenchmark-dev
   libnlopt-cxx-dev libxlsxwriter-dev
-  python3 python3-openpyxl poppler-utils
+  python3 python3-openpyxl python3-pandas poppler-utils
   xvfb xauth imagemagick     # the workbench without a display; screenshot checks
   clang libclang-rt-14-dev   # libFuzzer harnesses (scripts/fuzz.sh)
 )

@@ -370,6 +370,50 @@ TEST(ReservationImporter, NewerExtractUpdatesByIdAndNeverDuplicates) {
   EXPECT_EQ(store->reservationCount(), 4);
 }
 
+// An import compares each row with a digest of the stored one instead of asking the store; a
+// change in any single field must still be written (and counted) as an update, in any row order.
+TEST(ReservationImporter, EveryFieldChangeIsSeenOnReimport) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const std::string base = ",booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90,EUR,B1\n";
+  std::string v1 = kHeader;
+  for (int i = 1; i <= 13; ++i)
+    v1 += "R" + std::to_string(i) + base;
+  // One field changed per row (R13 unchanged), listed in another order than the first file.
+  const std::string v2 =
+      kHeader + "R13,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90,EUR,B1\n"
+                "R12,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEIW,EB,90,EUR,B1\n"
+                "R1,cancelled,2026-01-01,2026-02-01,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90,EUR,B1\n"
+                "R3,booked,2026-01-01,,2026-03-02,2026-03-03,1,DBL,LEI,WEB,90,EUR,B1\n"
+                "R2,booked,2025-12-31,,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90,EUR,B1\n"
+                "R4,booked,2026-01-01,,2026-03-01,2026-03-04,1,DBL,LEI,WEB,90,EUR,B1\n"
+                "R5,booked,2026-01-01,,2026-03-01,2026-03-03,2,DBL,LEI,WEB,90,EUR,B1\n"
+                "R6,booked,2026-01-01,,2026-03-01,2026-03-03,1,TWN,LEI,WEB,90,EUR,B1\n"
+                "R7,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,COR,WEB,90,EUR,B1\n"
+                "R8,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEI,OTA,90,EUR,B1\n"
+                "R9,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90.01,EUR,B1\n"
+                "R10,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90,USD,B1\n"
+                "R11,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90,EUR,\n";
+  cbtest::writeFile(tmp / "v1.csv", v1);
+  cbtest::writeFile(tmp / "v2.csv", v2);
+  ASSERT_TRUE(cb::importReservations(*store, tmp / "v1.csv").written);
+  auto second = cb::importReservations(*store, tmp / "v2.csv");
+  ASSERT_TRUE(second.written);
+  EXPECT_EQ(second.log.added, 0);
+  EXPECT_EQ(second.log.updated, 12);
+  EXPECT_EQ(second.log.unchanged, 1);
+  // The store now holds exactly the second file's rows (written back in id order).
+  auto expected = lines(v2);
+  std::sort(expected.begin() + 1, expected.end(), [](const std::string &a, const std::string &b) {
+    return a.substr(0, a.find(',')) < b.substr(0, b.find(','));
+  });
+  EXPECT_EQ(lines(nativeCsv(*store)), expected);
+  // And a third import of the same file changes nothing.
+  auto third = cb::importReservations(*store, tmp / "v2.csv");
+  EXPECT_EQ(third.log.updated, 0);
+  EXPECT_EQ(third.log.unchanged, 13);
+}
+
 TEST(ReservationImporter, EveryImportIsLogged) {
   cbtest::TempDir tmp;
   auto store = newStore(tmp);
