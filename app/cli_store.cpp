@@ -129,12 +129,12 @@ void addStoreVerbs(CLI::App &app, VerbList &verbs) {
   auto *sample = app.add_subcommand("sample", "Write the sample property's files (byte-identical)");
   sample->add_option("OUT_DIR", a->outDir, "Folder to write")->required();
   sample->add_option("--store", a->sampleStore, "Also build a ready store at this path");
-  sample->add_option("--size", a->sampleSize,
-                     "sample (default: 150 rooms, ~55,000 reservations) or 1m (the benchmark "
-                     "property: 600 rooms, five years, ~1,000,000 reservations, ~150 MB of CSV)")
+  sample
+      ->add_option("--size", a->sampleSize,
+                   "sample (default: 150 rooms, ~55,000 reservations) or 1m (the benchmark "
+                   "property: 600 rooms, five years, ~1,000,000 reservations, ~150 MB of CSV)")
       ->check(CLI::IsMember({"sample", "1m"}));
-  verbs.push_back(
-      {sample, [a] { return runSample(a->outDir, a->sampleStore, a->sampleSize); }});
+  verbs.push_back({sample, [a] { return runSample(a->outDir, a->sampleStore, a->sampleSize); }});
 }
 
 } // namespace cbcli
