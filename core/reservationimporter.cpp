@@ -89,61 +89,63 @@ struct IdState {
 /// addressing over one vector of states: std::unordered_map costs an allocation and a cache miss
 /// per node, which at a million ids was a fifth of a re-import (measured with perf); the
 /// Debian packages we use offer no flat hash map (Boost 1.74 predates unordered_flat_map).
+/// A re-imported extract lists its ids in the order the store first took them, so the state
+/// after the last one found is tried first, and the hash slots are only built at the first miss.
 class IdIndex {
 public:
-  explicit IdIndex(std::size_t expected) {
-    states_.reserve(expected);
-    std::size_t slots = 16;
-    while (slots < expected * 2)
-      slots *= 2;
-    slots_.assign(slots, 0);
+  explicit IdIndex(std::size_t expected) : expected_(expected) { states_.reserve(expected); }
+
+  void addStored(std::string &&id, const ReservationDigest &digest) {
+    states_.push_back(IdState{std::move(id), digest, true, 0});
   }
-  /// The state of `id`, added (not in the store, not yet used) when new. A re-imported extract
-  /// lists its ids in the order the store first took them, so the state after the last one found
-  /// is tried before the hash: a sequential read instead of two cache misses.
+
+  /// The state of `id`, added (not in the store, not yet used) when new.
   IdState &operator[](std::string_view id) {
     if (next_ < states_.size() && states_[next_].id == id)
       return states_[next_++];
-    const std::size_t k = find(id);
+    std::size_t k = find(id);
+    if (k == states_.size()) {
+      states_.push_back(IdState{std::string(id), {}, false, 0});
+      place(k);
+    }
     next_ = k + 1;
     return states_[k];
   }
-  void addStored(std::string_view id, const ReservationDigest &digest) {
-    IdState &s = states_[find(id)];
-    s.stored = digest;
-    s.inStore = true;
-  }
 
 private:
+  /// Index of `id` in states_, or states_.size() when absent; indexes every state first.
   std::size_t find(std::string_view id) {
-    if ((states_.size() + 1) * 2 > slots_.size())
-      grow();
+    if (slots_.empty() || (states_.size() + 1) * 2 > slots_.size()) {
+      std::size_t n = 16;
+      while (n < std::max(expected_, states_.size() + 1) * 2)
+        n *= 2;
+      slots_.assign(n, 0);
+      indexed_ = 0;
+    }
+    while (indexed_ < states_.size())
+      place(indexed_);
     const std::size_t mask = slots_.size() - 1;
     for (std::size_t i = std::hash<std::string_view>{}(id)&mask;; i = (i + 1) & mask) {
       const std::uint32_t slot = slots_[i];
-      if (slot == 0) {
-        states_.push_back(IdState{std::string(id), {}, false, 0});
-        slots_[i] = static_cast<std::uint32_t>(states_.size());
-        return states_.size() - 1;
-      }
+      if (slot == 0)
+        return states_.size();
       if (states_[slot - 1].id == id)
         return slot - 1;
     }
   }
-  void grow() {
-    std::vector<std::uint32_t> bigger(slots_.size() * 2, 0);
-    const std::size_t mask = bigger.size() - 1;
-    for (std::size_t k = 0; k < states_.size(); ++k) {
-      std::size_t i = std::hash<std::string_view>{}(states_[k].id) & mask;
-      while (bigger[i] != 0)
-        i = (i + 1) & mask;
-      bigger[i] = static_cast<std::uint32_t>(k + 1);
-    }
-    slots_ = std::move(bigger);
+  void place(std::size_t k) {
+    const std::size_t mask = slots_.size() - 1;
+    std::size_t i = std::hash<std::string_view>{}(states_[k].id) & mask;
+    while (slots_[i] != 0)
+      i = (i + 1) & mask;
+    slots_[i] = static_cast<std::uint32_t>(k + 1);
+    indexed_ = k + 1;
   }
 
+  std::size_t expected_;
   std::vector<IdState> states_;
   std::vector<std::uint32_t> slots_; ///< 1 + index into states_; 0 = empty
+  std::size_t indexed_ = 0;          ///< states_[0, indexed_) are in slots_
   std::size_t next_ = 0;             ///< the state tried first by the next lookup
 };
 
@@ -369,8 +371,9 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   // stored ones, so the index rarely grows.
   IdIndex ids(static_cast<std::size_t>(store.reservationCount() +
                                        std::max<std::int64_t>(fileSize, 0) / 64));
-  store.visitReservationDigests(
-      [&](std::string &&id, const ReservationDigest &digest) { ids.addStored(id, digest); });
+  store.visitReservationDigests([&](std::string &&id, const ReservationDigest &digest) {
+    ids.addStored(std::move(id), digest);
+  });
   bool rowErrors = false;
   std::int64_t listed = 0, unlisted = 0;
   CsvRecord rec;

@@ -105,6 +105,10 @@ void SqliteStatement::bind(int index, std::string_view text) {
   check(sqlite3_bind_text64(stmt_, index, text.data(), text.size(), SQLITE_TRANSIENT, SQLITE_UTF8));
 }
 
+void SqliteStatement::bindBlob(int index, const void *data, std::size_t size) {
+  check(sqlite3_bind_blob64(stmt_, index, data, size, SQLITE_TRANSIENT));
+}
+
 void SqliteStatement::bind(int index, std::nullptr_t) { check(sqlite3_bind_null(stmt_, index)); }
 
 void SqliteStatement::bind(int index, Date day) { bind(index, std::string_view(day.toIso())); }
@@ -156,6 +160,13 @@ int SqliteStatement::columnInt(int column) const {
 
 double SqliteStatement::columnDouble(int column) const {
   return sqlite3_column_double(stmt_, column);
+}
+
+std::span<const unsigned char> SqliteStatement::columnBlob(int column) const {
+  const auto *data = static_cast<const unsigned char *>(sqlite3_column_blob(stmt_, column));
+  if (!data)
+    return {};
+  return {data, static_cast<std::size_t>(sqlite3_column_bytes(stmt_, column))};
 }
 
 std::string SqliteStatement::columnText(int column) const {

@@ -14,6 +14,7 @@
 #include <cstdint>
 #include <filesystem>
 #include <optional>
+#include <span>
 #include <string>
 #include <string_view>
 
@@ -45,6 +46,7 @@ public:
   void bind(int index, const std::optional<Date> &day); ///< 'YYYY-MM-DD' or NULL
   /// Empty text is bound as NULL (optional codes such as a reservation's channel).
   void bindTextOrNull(int index, std::string_view text);
+  void bindBlob(int index, const void *data, std::size_t size); ///< copied
 
   /// Runs one step: true when a row is ready to read, false when done. When done the
   /// statement is reset (bindings kept) so it holds no read lock; stop early with reset().
@@ -57,6 +59,8 @@ public:
   double columnDouble(int column) const;
   std::string columnText(int column) const; ///< NULL reads as ""
   bool columnIsNull(int column) const;
+  /// The bytes of a BLOB (empty for NULL), valid until the next step, reset or column call.
+  std::span<const unsigned char> columnBlob(int column) const;
   Date columnDate(int column) const; ///< throws unless the value is 'YYYY-MM-DD'
   std::optional<Date> columnOptionalDate(int column) const; ///< NULL → nullopt
 

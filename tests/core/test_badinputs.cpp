@@ -88,7 +88,8 @@ std::string contentDump(cb::SqliteDb &db) {
     while (cols.step())
       expr += (expr.empty() ? "" : " || '|' || ") + ("quote(\"" + cols.columnText(0) + "\")");
     dump += "## " + t + "\n";
-    auto rows = db.prepare("SELECT " + expr + " FROM \"" + t + "\" ORDER BY rowid");
+    // Ordered by the whole row: a WITHOUT ROWID table (reservations) has no rowid.
+    auto rows = db.prepare("SELECT " + expr + " AS r FROM \"" + t + "\" ORDER BY r");
     while (rows.step())
       dump += rows.columnText(0) + "\n";
   }

@@ -2,6 +2,7 @@
 
 #include "core/nativeformat.h"
 #include "core/sha256.h"
+#include "core/sqlite.h"
 
 #include "testsupport.h"
 
@@ -412,6 +413,37 @@ TEST(ReservationImporter, EveryFieldChangeIsSeenOnReimport) {
   auto third = cb::importReservations(*store, tmp / "v2.csv");
   EXPECT_EQ(third.log.updated, 0);
   EXPECT_EQ(third.log.unchanged, 13);
+}
+
+// Rows written before the store kept digests (schema 6) have none; an import digests them from
+// their fields, so an unchanged row is still unchanged and a changed one updated.
+TEST(ReservationImporter, RowsWithoutADigestFromAnOlderStoreAreCompared) {
+  cbtest::TempDir tmp;
+  const auto path = tmp / "old.cbstore";
+  cb::Property p;
+  p.name = "Old house";
+  p.capacity = 40;
+  cb::Store::createAtVersionForTesting(path, p, 6);
+  {
+    cb::SqliteDb db(path, cb::SqliteDb::Mode::OpenExisting);
+    db.exec("INSERT INTO segments (code) VALUES ('LEI');"
+            "INSERT INTO reservations (id, status, booked_on, arrival, departure, rooms, segment, "
+            "rate, currency) VALUES "
+            "('D1', 'booked', '2026-01-01', '2026-03-01', '2026-03-03', 1, 'LEI', 90.0, ''),"
+            "('D2', 'booked', '2026-01-02', '2026-03-01', '2026-03-02', 1, 'LEI', 80.0, '')");
+  }
+  auto store = cb::Store::open(path);
+  ASSERT_EQ(store->schemaVersion(), cb::Store::kSchemaVersion);
+  const auto file = tmp / "again.csv";
+  cbtest::writeFile(file, kHeader + "D1,booked,2026-01-01,,2026-03-01,2026-03-03,1,,LEI,,90,,\n"
+                                    "D2,booked,2026-01-02,,2026-03-01,2026-03-02,1,,LEI,,85,,\n");
+  auto rep = cb::importReservations(*store, file);
+  ASSERT_TRUE(rep.written);
+  EXPECT_EQ(rep.log.unchanged, 1);
+  EXPECT_EQ(rep.log.updated, 1);
+  EXPECT_EQ(store->reservation("D2")->rate, 85.0);
+  auto again = cb::importReservations(*store, file);
+  EXPECT_EQ(again.log.unchanged, 2);
 }
 
 TEST(ReservationImporter, EveryImportIsLogged) {
