@@ -165,7 +165,7 @@ TEST(BlockStore, SchemaFiveStoreKeepsItsBlocksWithUnknownContractDate) {
             "'definite')");
   }
   auto store = cb::Store::open(path);
-  EXPECT_EQ(store->schemaVersion(), 6);
+  EXPECT_EQ(store->schemaVersion(), cb::Store::kSchemaVersion);
   const auto blocks = store->blockRecords();
   ASSERT_EQ(blocks.size(), 1U);
   EXPECT_EQ(blocks[0].block.roomsPerNight, 8);
