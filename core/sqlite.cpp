@@ -169,6 +169,14 @@ std::span<const unsigned char> SqliteStatement::columnBlob(int column) const {
   return {data, static_cast<std::size_t>(sqlite3_column_bytes(stmt_, column))};
 }
 
+std::string_view SqliteStatement::columnTextView(int column) const {
+  const auto *text = sqlite3_column_text(stmt_, column);
+  if (!text)
+    return {};
+  return {reinterpret_cast<const char *>(text),
+          static_cast<std::size_t>(sqlite3_column_bytes(stmt_, column))};
+}
+
 std::string SqliteStatement::columnText(int column) const {
   const auto *text = sqlite3_column_text(stmt_, column);
   if (!text)

@@ -58,6 +58,8 @@ public:
   int columnInt(int column) const; ///< throws if the value does not fit an int
   double columnDouble(int column) const;
   std::string columnText(int column) const; ///< NULL reads as ""
+  /// The same without a copy, valid until the next step, reset or call on this column.
+  std::string_view columnTextView(int column) const;
   bool columnIsNull(int column) const;
   /// The bytes of a BLOB (empty for NULL), valid until the next step, reset or column call.
   std::span<const unsigned char> columnBlob(int column) const;

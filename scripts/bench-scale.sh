@@ -1,0 +1,116 @@
+#!/usr/bin/env bash
+# The bench command for a large property (README "Performance"): whole processes of the command
+# line on the synthetic ~1,000,000-booking property (simulated into a temporary folder, never
+# committed), each step run RUNS times, the median wall time and the largest peak RSS printed as a
+# Markdown table; then the same work by the independent pandas pipeline (bench/pandas_pipeline.py)
+# and the speed ratios. Nothing is asserted.
+#
+# Usage: scripts/bench-scale.sh [--runs N] [--size 1m|sample] [--build DIR] [--skip-slow]
+#   --runs N      runs per step (default 3)
+#   --size S      1m (default) or sample (the 55,000-row sample property, for a quick try)
+#   --build DIR   a configured build folder (default build/, the README's RelWithDebInfo build)
+#   --skip-slow   leave out forecast --method auto and the backtest of every method
+# Needs /usr/bin/time and Debian's python3-pandas (scripts/install-deps.sh installs both).
+set -euo pipefail
+root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+runs=3 size=1m build="$root/build" skipSlow=0
+while [[ $# -gt 0 ]]; do
+  case "$1" in
+    --runs) runs="$2"; shift 2 ;;
+    --size) size="$2"; shift 2 ;;
+    --build) build="$2"; shift 2 ;;
+    --skip-slow) skipSlow=1; shift ;;
+    *) echo "unknown option $1" >&2; exit 2 ;;
+  esac
+done
+[[ -x /usr/bin/time ]] || { echo "needs /usr/bin/time (apt-get install time)" >&2; exit 2; }
+cmake --build "$build" --target curvebench -j "$(nproc)" >/dev/null
+cli="$build/app/curvebench"
+work="$(mktemp -d)"
+trap 'rm -rf "$work"' EXIT
+
+"$cli" sample "$work/files" --size "$size" >/dev/null
+csv="$work/files/reservations.csv"
+rows=$(($(wc -l <"$csv") - 1))
+capacity=$(/usr/bin/python3 -c 'import json,sys; print(json.load(open(sys.argv[1]))["capacity"])' \
+  "$work/files/property.json")
+# One year of reading dates ending at the data's reading date, and the nights after it.
+asof=$(tail -n +2 "$csv" | cut -d, -f3,4 | tr ',' '\n' | grep -v '^$' | sort | tail -1)
+from=$(date -d "$asof - 364 days" +%F)
+
+# Runs "$@" RUNS times; prints "median_seconds max_rss_mb". PREP (a function name or :) runs
+# before each run, untimed.
+measure() {
+  local prep="$1"; shift
+  local times=() rss=0
+  for ((i = 0; i < runs; i++)); do
+    "$prep"
+    /usr/bin/time -f "%e %M" -o "$work/time.txt" "$@" >/dev/null 2>"$work/stderr.txt" ||
+      { echo "failed: $*" >&2; cat "$work/stderr.txt" >&2; exit 1; }
+    read -r t m <"$work/time.txt"
+    times+=("$t")
+    ((m > rss)) && rss=$m
+  done
+  printf '%s %d\n' "$(printf '%s\n' "${times[@]}" | sort -n | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}')" \
+    $((rss / 1024))
+}
+row() { printf '| %s | %s s | %s MB |\n' "$1" "$2" "$3"; }
+
+fresh() { rm -f "$work/s.curvebench"*; "$cli" init "$work/s.curvebench" --name Bench --capacity "$capacity" >/dev/null; }
+store="$work/s.curvebench"
+
+echo "Curvebench on $size: $(echo "$rows" | sed ':a;s/\B[0-9]\{3\}\>/,&/;ta') reservations, reading date $asof," \
+  "$runs runs per step (median wall time, largest peak RSS); $(nproc) cores, $(date +%F)"
+echo
+echo "| step | time | peak RSS |"
+echo "|---|---|---|"
+read -r t m < <(measure fresh "$cli" import "$store" "$csv"); row "import into a new store" "$t" "$m"
+importT=$t
+read -r t m < <(measure : "$cli" import "$store" "$csv"); row "re-import of the unchanged file" "$t" "$m"
+read -r t m < <(measure : "$cli" info "$store"); row "open the store, summary (info)" "$t" "$m"
+read -r t m < <(measure : "$cli" curves "$store" --out "$work/curves.csv")
+row "curves, total, to CSV (load store, cube, write)" "$t" "$m"
+curvesT=$t
+read -r t m < <(measure : "$cli" curves "$store" --by segment --out "$work/curves-seg.csv")
+row "curves by segment to CSV" "$t" "$m"
+read -r t m < <(measure : "$cli" pace "$store" --as-of "$asof" --days 365); row "pace, 365 nights" "$t" "$m"
+read -r t m < <(measure : "$cli" outlook "$store" --as-of "$asof" --days 365)
+row "outlook, 365 nights (pickup-adv)" "$t" "$m"
+read -r t m < <(measure : "$cli" backtest "$store" --from "$from" --to "$asof" --methods pickup-add \
+  --naive-history --summary "$work/bt-add.csv")
+row "backtest of additive pickup, one year of reading dates" "$t" "$m"
+btAddT=$t
+if [[ $skipSlow == 0 ]]; then
+  read -r t m < <(measure : "$cli" forecast "$store" --as-of "$asof" --horizon 365 --method auto \
+    --out "$work/forecast.csv")
+  row "forecast, 365 nights, method auto" "$t" "$m"
+  read -r t m < <(measure : "$cli" backtest "$store" --from "$from" --to "$asof" --methods all \
+    --summary "$work/bt-all.csv")
+  row "backtest of every method, one year of reading dates" "$t" "$m"
+fi
+
+echo
+echo "Against the pandas pipeline (bench/pandas_pipeline.py, the same parse, total curves and"
+echo "additive-pickup backtest; pandas keeps its parsed frame in a pickle as its \"store\"):"
+echo
+echo "| work | Curvebench | pandas | ratio |"
+echo "|---|---|---|---|"
+py=(/usr/bin/python3 "$root/bench/pandas_pipeline.py")
+read -r pe pm < <(measure : "${py[@]}" --format native "$csv" --from "$from" --to "$asof" \
+  --curves-out "$work/pd-curves.csv" --save-cache "$work/pd.pkl")
+read -r pr prm < <(measure : "${py[@]}" --from-cache "$work/pd.pkl" --from "$from" --to "$asof" \
+  --curves-out "$work/pd-curves.csv")
+cbE=$(awk -v a="$importT" -v b="$curvesT" -v c="$btAddT" 'BEGIN {printf "%.2f", a + b + c}')
+cbR=$(awk -v b="$curvesT" -v c="$btAddT" 'BEGIN {printf "%.2f", b + c}')
+ratio() { awk -v p="$1" -v c="$2" 'BEGIN {printf "%.1f", p / c}'; }
+printf '| end to end from the CSV (import, curves, backtest) | %s s | %s s (%s MB) | %s× |\n' \
+  "$cbE" "$pe" "$pm" "$(ratio "$pe" "$cbE")"
+printf '| daily refresh from the store (curves, backtest) | %s s | %s s (%s MB) | %s× |\n' \
+  "$cbR" "$pr" "$prm" "$(ratio "$pr" "$cbR")"
+if cmp -s "$work/curves.csv" "$work/pd-curves.csv"; then
+  echo
+  echo "The two curves files are identical, byte for byte."
+else
+  echo
+  echo "WARNING: the curves files differ; the comparison is not of the same work." >&2
+fi
