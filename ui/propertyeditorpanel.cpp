@@ -170,7 +170,13 @@ PropertyEditorPanel::PropertyEditorPanel(QWidget *parent)
   });
 }
 
-PropertyEditorPanel::~PropertyEditorPanel() = default;
+PropertyEditorPanel::~PropertyEditorPanel() {
+  // The model and its undo stack are children, destroyed after this class's part of the object:
+  // the stack clears itself on the way and its signals would call back into a half-destroyed
+  // panel (found by UBSan). Cut every connection from the model's side first.
+  disconnect(model_->undoStack(), nullptr, this, nullptr);
+  disconnect(model_, nullptr, this, nullptr);
+}
 
 void PropertyEditorPanel::showSession(const WorkbenchSession &session) {
   summary_->showSession(session);
