@@ -191,7 +191,7 @@ std::optional<cb::OutlookNight> DateStudyModel::capacityFigures(const std::strin
   n.lead = lead();
   n.capacity = s_.property().capacityOn(night_);
   n.otb = fv->otb;
-  for (const auto &r : s_.reservations())
+  for (const auto &r : s_.reservationsCovering(night_))
     if (r.onBooks(night_, s_.readingDate()))
       n.otbRevenue += r.rate * r.rooms;
   n.forecast = fv->forecast;
@@ -206,9 +206,9 @@ std::optional<cb::OutlookNight> DateStudyModel::capacityFigures(const std::strin
 
 std::vector<cb::Reservation> DateStudyModel::reservationsOnBooks() const {
   std::vector<cb::Reservation> out;
-  for (const auto &r : s_.reservations())
+  for (auto &r : s_.reservationsCovering(night_))
     if (r.onBooks(night_, s_.readingDate()) && (segment_.empty() || r.segment == segment_))
-      out.push_back(r);
+      out.push_back(std::move(r));
   std::sort(out.begin(), out.end(), [](const cb::Reservation &a, const cb::Reservation &b) {
     return a.bookedOn != b.bookedOn ? a.bookedOn < b.bookedOn : a.id < b.id;
   });

@@ -14,6 +14,7 @@ std::unique_ptr<WorkbenchSession> WorkbenchSession::open(const std::filesystem::
   s->summary_ = db->summary();
   s->segments_ = db->segments();
   s->reservations_ = db->reservations();
+  s->nightIndex_ = cb::NightIndex(s->reservations_);
   s->sources_ = {db->closures(), db->denials()};
   s->events_ = db->events();
   s->readingDate_ = s->summary_.lastActivity.value_or(cb::Date::fromYmd(2000, 1, 1));
@@ -50,7 +51,7 @@ NightCurves WorkbenchSession::curves(cb::Date night, int maxLead,
   if (known > 0)
     out.readingLead = known;
   auto fill = [&](CurveSeries &series, cb::Date n, int minLead) {
-    cb::NightCurve c = cb::bookingCurve(reservations_, n, maxLead, segment);
+    cb::NightCurve c = cb::bookingCurve(reservationsCovering(n), n, maxLead, segment);
     for (int d = maxLead; d >= std::max(minLead, 0); --d) {
       series.x.push_back(-d);
       series.y.push_back(c.rooms[static_cast<std::size_t>(d)]);

@@ -2,6 +2,7 @@
 // so everything a screen displays can be tested headless.
 #pragma once
 
+#include "core/nightindex.h"
 #include "core/reservation.h"
 #include "core/store.h"
 #include "core/unconstrain.h"
@@ -41,6 +42,11 @@ public:
   const std::vector<cb::Segment> &segments() const { return segments_; }
   const std::filesystem::path &path() const { return path_; }
   const std::vector<cb::Reservation> &reservations() const { return reservations_; }
+  /// The reservations covering one stay night, in store order: a night's few hundred instead of
+  /// a scan of them all (a million at a large property).
+  std::vector<cb::Reservation> reservationsCovering(cb::Date night) const {
+    return nightIndex_.reservationsCovering(reservations_, night);
+  }
   /// Sales closures and denials/regrets: what unconstraining reads (core/unconstrain.h).
   const cb::CensorSources &censorSources() const { return sources_; }
   const std::vector<cb::EventNote> &events() const { return events_; }
@@ -63,6 +69,7 @@ private:
   cb::StoreSummary summary_;
   std::vector<cb::Segment> segments_;
   std::vector<cb::Reservation> reservations_;
+  cb::NightIndex nightIndex_; ///< over reservations_, built once when the store is read
   cb::CensorSources sources_;
   std::vector<cb::EventNote> events_;
   cb::Date readingDate_, newest_, firstBooked_;
