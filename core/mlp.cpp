@@ -64,8 +64,8 @@ Eigen::VectorXd Mlp::forward(const Eigen::MatrixXd &z) const {
 double Mlp::loss(const Eigen::MatrixXd &z, const Eigen::VectorXd &y, double l2,
                  Eigen::VectorXd *gradient) const {
   const auto n = static_cast<double>(z.cols());
-  Eigen::MatrixXd h = tanhOf((w1_ * z).colwise() + b1_); // hidden × n
-  Eigen::VectorXd r = ((h.transpose() * w2_).array() + b2_).matrix() - y;  // residuals
+  Eigen::MatrixXd h = tanhOf((w1_ * z).colwise() + b1_);                  // hidden × n
+  Eigen::VectorXd r = ((h.transpose() * w2_).array() + b2_).matrix() - y; // residuals
   double value = 0.5 * r.squaredNorm() / n + 0.5 * l2 * (w1_.squaredNorm() + w2_.squaredNorm());
   if (gradient) {
     Eigen::VectorXd dy = r / n; // ∂L/∂ŷ
