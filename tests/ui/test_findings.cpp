@@ -119,6 +119,8 @@ private slots:
                                                  "'@SUM(A1),0\n"));
     QCOMPARE(cbui::csvField(QStringLiteral("-cmd")), QStringLiteral("'-cmd"));
     QCOMPARE(cbui::csvField(QStringLiteral("\tx")), QStringLiteral("'\tx"));
+    // A carriage return first: neutralised, and quoted because it would end the record.
+    QCOMPARE(cbui::csvField(QStringLiteral("\r=1+1")), QStringLiteral("\"'\r=1+1\""));
     QCOMPARE(cbui::csvField(QStringLiteral("-0.25")), QStringLiteral("-0.25"));
   }
 
