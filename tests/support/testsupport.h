@@ -12,6 +12,11 @@
 
 namespace cbtest {
 
+/// Upper bound for waiting on a background job in a ui test. A wait returns as soon as the job
+/// signals, so this only matters when something is slow: the sanitizer build (-O1) on 2 cores
+/// took over 30 s for Year Map's year of nights.
+inline constexpr int kBackgroundWaitMs = 300000;
+
 /// The repository root, the shared/ folder beside the clone and the build folder.
 std::filesystem::path sourceDir();
 std::filesystem::path sharedDir();

@@ -379,7 +379,7 @@ private slots:
 
     panel.validate();
     QVERIFY(panel.busy());
-    QVERIFY(finished.wait(30000));
+    QVERIFY(finished.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(finished.last().at(0).toBool(), false);
     QVERIFY2(panel.resultText().contains(QStringLiteral("Commit strict would write nothing")),
              qPrintable(panel.resultText()));
@@ -389,14 +389,14 @@ private slots:
     QCOMPARE(panel.importLogModel()->rowCount(), 1);
 
     panel.commit(false);
-    QVERIFY(finished.wait(30000));
+    QVERIFY(finished.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(finished.last().at(0).toBool(), false);
     QCOMPARE(written.count(), 0);
     QCOMPARE(cb::Store::open(store)->reservationCount(), std::int64_t(4));
     QCOMPARE(panel.importLogModel()->rowCount(), 2);
 
     panel.commit(true);
-    QVERIFY(finished.wait(30000));
+    QVERIFY(finished.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(finished.last().at(0).toBool(), true);
     QCOMPARE(written.count(), 1);
     QCOMPARE(cb::Store::open(store)->reservationCount(), std::int64_t(6));

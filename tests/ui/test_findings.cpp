@@ -136,7 +136,8 @@ private slots:
     QVERIFY(panel.forecastText().contains(QStringLiteral("start when Date Study is shown")));
     panel.show();
     QVERIFY(panel.isComputing());
-    QTRY_VERIFY_WITH_TIMEOUT(panel.forecastText().contains(QStringLiteral("Forecast <b>")), 60000);
+    QTRY_VERIFY_WITH_TIMEOUT(panel.forecastText().contains(QStringLiteral("Forecast <b>")),
+                             cbtest::kBackgroundWaitMs);
     panel.setSession(nullptr);
   }
 
@@ -153,11 +154,11 @@ private slots:
     cbui::MainWindow w;
     QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
     w.openStore(dir / "e.curvebench");
-    QVERIFY(loaded.wait(20000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     QSignalSpy finished(&w, &cbui::MainWindow::importFinished);
     w.importCsv(dir / "files" / "reservations.csv");
     w.cancelImport();
-    QVERIFY(finished.wait(60000));
+    QVERIFY(finished.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(finished.front().front().toBool(), false);
     QVERIFY(w.statusBar()->currentMessage().contains(QStringLiteral("cancelled")));
     QCOMPARE(cb::Store::open(dir / "e.curvebench")->summary().reservations, std::int64_t(0));

@@ -225,7 +225,7 @@ private slots:
     QSignalSpy evaluated(&panel, &cbui::GroupOfferPanel::evaluated);
     panel.setSession(session_.get());
     panel.show(); // the starting offer is checked when the screen is first shown
-    QVERIFY(evaluated.wait(60000));
+    QVERIFY(evaluated.wait(cbtest::kBackgroundWaitMs));
     QVERIFY(panel.result() != nullptr);
     QCOMPARE(panel.result()->offer.nights(), 3);
 
@@ -235,7 +235,7 @@ private slots:
     QCOMPARE(panel.roomsEditor()->rowCount(), 3);
     panel.evaluate();
     QVERIFY(panel.isRunning());
-    QVERIFY(evaluated.wait(60000));
+    QVERIFY(evaluated.wait(cbtest::kBackgroundWaitMs));
     QVERIFY(!panel.isRunning());
     sameAsCore(*panel.result(), direct(*session_, offer));
     QCOMPARE(panel.table()->rowCount(), 5);
@@ -281,7 +281,7 @@ private slots:
     panel.setOffer(far);
     panel.evaluate();
     panel.cancel();
-    QVERIFY(evaluated.wait(60000));
+    QVERIFY(evaluated.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(panel.messageText(), QStringLiteral("Check cancelled."));
     QVERIFY(panel.result() == nullptr);
   }
@@ -290,7 +290,7 @@ private slots:
     cbui::MainWindow w;
     QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
     w.openStore(*dir_ / "s.curvebench");
-    QVERIFY(loaded.wait(30000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     w.showScreen(cbui::MainWindow::GroupOfferScreen);
     QCOMPARE(w.currentScreen(), cbui::MainWindow::GroupOfferScreen);
     QVERIFY(w.groupOfferPanel()->isVisibleTo(&w));

@@ -98,7 +98,7 @@ private slots:
     cbui::MainWindow w;
     QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
     w.openStore(dir / "t.curvebench");
-    QVERIFY(loaded.wait(10000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     QVERIFY(w.summaryPanel()->text().contains(QStringLiteral("Test House")));
     QVERIFY(w.dateStudy() != nullptr);
     w.showNight(d("2026-06-13"));
@@ -116,7 +116,7 @@ private slots:
     w.show();
     QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
     w.openStore(dir / "s.curvebench");
-    QVERIFY(loaded.wait(20000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     auto *table = w.horizonPanel()->findChild<QTableView *>(QStringLiteral("horizonTable"));
     auto *status = w.horizonPanel()->findChild<QLabel *>(QStringLiteral("horizonStatus"));
     QVERIFY(table && status);
@@ -130,7 +130,7 @@ private slots:
     // Once Horizon is drawn, the data-health check runs in the background and its findings go
     // to the findings panel: the sample's extract starts with arrivals on 2023-11-01, so guests
     // already in house then are missing and the first nights are flagged incomplete.
-    QTRY_VERIFY_WITH_TIMEOUT(w.findingsPanel()->count() > 0, 30000);
+    QTRY_VERIFY_WITH_TIMEOUT(w.findingsPanel()->count() > 0, cbtest::kBackgroundWaitMs);
     auto *findings = w.findingsPanel()->table();
     QVERIFY(findings->item(0, 4)->text().contains(QStringLiteral("2023-11-01")));
     QVERIFY(findings->item(0, 4)->text().contains(QStringLiteral("incomplete")));
@@ -184,13 +184,13 @@ private slots:
     auto first = std::make_unique<cbui::MainWindow>();
     QSignalSpy firstLoaded(first.get(), &cbui::MainWindow::sessionLoaded);
     first->openStore(path);
-    QVERIFY(firstLoaded.wait(10000));
+    QVERIFY(firstLoaded.wait(cbtest::kBackgroundWaitMs));
     QVERIFY(first->readOnlyReason().isEmpty());
 
     cbui::MainWindow second;
     QSignalSpy loaded(&second, &cbui::MainWindow::sessionLoaded);
     second.openStore(path);
-    QVERIFY(loaded.wait(10000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     QVERIFY(second.readOnlyReason().contains(QStringLiteral("open in another Curvebench window")));
     QVERIFY(second.windowTitle().endsWith(QStringLiteral("(read-only)")));
     // It shows the data…
@@ -219,7 +219,7 @@ private slots:
     cbui::MainWindow third;
     QSignalSpy thirdLoaded(&third, &cbui::MainWindow::sessionLoaded);
     third.openStore(path);
-    QVERIFY(thirdLoaded.wait(10000));
+    QVERIFY(thirdLoaded.wait(cbtest::kBackgroundWaitMs));
     QVERIFY(third.readOnlyReason().isEmpty());
   }
 
@@ -229,7 +229,7 @@ private slots:
     cbui::MainWindow w;
     QSignalSpy failed(&w, &cbui::MainWindow::loadFailed);
     w.openStore(dir / "junk.curvebench");
-    QVERIFY(failed.wait(10000));
+    QVERIFY(failed.wait(cbtest::kBackgroundWaitMs));
     QVERIFY(failed.front().front().toString().contains(QStringLiteral("junk.curvebench")));
   }
 };

@@ -337,12 +337,12 @@ private slots:
     w.show();
     QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
     w.openStore(path);
-    QVERIFY(loaded.wait(20000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     w.showScreen(cbui::MainWindow::HorizonScreen);
     auto *editor = w.propertyEditor();
     QCOMPARE(editor->model()->property().capacity, 1200);
     QCOMPARE(editor->model()->setCapacity(1300), QString());
-    QVERIFY(loaded.wait(20000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(w.session()->property().capacity, 1300);
     QVERIFY(!editor->undoAction()->isEnabled()); // another screen is shown
     editor->undoAction()->trigger();
@@ -352,7 +352,7 @@ private slots:
     QCOMPARE(editor->undoAction()->text(), QStringLiteral("&Undo capacity 1,300 rooms"));
     editor->undoAction()->trigger();
     QCOMPARE(reopen(path)->property().capacity, 1200);
-    QVERIFY(loaded.wait(20000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(w.session()->property().capacity, 1200);
     // A refusal shows on its page; nothing written.
     QVERIFY(!editor->model()->setSeasonBands(0.9, 0.5).isEmpty());
@@ -384,7 +384,7 @@ private slots:
     QCOMPARE(reopen(path)->segments().front().name, std::string("Corporate"));
     QTest::keySequence(&w, QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_Z));
     QCOMPARE(reopen(path)->segments().front().name, std::string("Corporate accounts"));
-    QVERIFY(loaded.wait(20000)); // the reload after the edits
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs)); // the reload after the edits
   }
 };
 

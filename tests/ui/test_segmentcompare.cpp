@@ -178,11 +178,11 @@ private slots:
     panel.resize(1300, 700);
     QSignalSpy computed(&panel, &cbui::SegmentComparePanel::computed);
     panel.setSession(session_.get());
-    QVERIFY(computed.wait(20000));
+    QVERIFY(computed.wait(cbtest::kBackgroundWaitMs));
     // Segments ticked, the hotel total not.
     QCOMPARE(panel.shownSeries(), (QStringList{QStringLiteral("CORP"), QStringLiteral("FLEX")}));
     panel.setPeriod(QDate(2026, 6, 13), QDate(2026, 6, 13));
-    QVERIFY(computed.wait(20000));
+    QVERIFY(computed.wait(cbtest::kBackgroundWaitMs));
     auto *curves = panel.findChild<cbui::SegmentCompareChart *>(QStringLiteral("compareCurves"));
     QVERIFY(curves);
     QCustomPlot *plot = curves->plot();

@@ -155,7 +155,7 @@ private slots:
     QSignalSpy activated(&panel, &cbui::YearMapPanel::nightActivated);
     panel.setSession(session_.get());
     panel.setYear(2025); // supersedes the reading date's year
-    QVERIFY(computed.wait(30000));
+    QVERIFY(computed.wait(cbtest::kBackgroundWaitMs));
     QCOMPARE(panel.data()->year, 2025);
     cbui::YearMapView *view = panel.view();
     const QRect cell = view->cellRect(QDate(2025, 8, 1));
@@ -189,7 +189,7 @@ private slots:
     QSignalSpy activated(&panel, &cbui::YearMapPanel::nightActivated);
     panel.setSession(session_.get());
     panel.setYear(2025);
-    QVERIFY(computed.wait(30000));
+    QVERIFY(computed.wait(cbtest::kBackgroundWaitMs));
     cbui::YearMapView *view = panel.view();
     panel.activateWindow();
     view->setFocus();
@@ -253,11 +253,11 @@ private slots:
     cbui::MainWindow w;
     QSignalSpy loaded(&w, &cbui::MainWindow::sessionLoaded);
     w.openStore(*dir_ / "m.curvebench");
-    QVERIFY(loaded.wait(10000));
+    QVERIFY(loaded.wait(cbtest::kBackgroundWaitMs));
     w.showScreen(cbui::MainWindow::YearMapScreen);
     QSignalSpy computed(w.yearMapPanel(), &cbui::YearMapPanel::computed);
     w.yearMapPanel()->setYear(2025);
-    QVERIFY(computed.wait(30000));
+    QVERIFY(computed.wait(cbtest::kBackgroundWaitMs));
     cbui::YearMapView *view = w.yearMapPanel()->view();
     QTest::mouseClick(view, Qt::LeftButton, {}, view->cellRect(QDate(2025, 6, 14)).center());
     QCOMPARE(w.currentScreen(), cbui::MainWindow::DateStudyScreen);
