@@ -2,7 +2,7 @@
 # An independent pandas/numpy implementation of the work Curvebench's command line does for the
 # speed comparison of issue 10: parse a reservation CSV, build the total booking curves, and
 # backtest classical additive pickup. No Curvebench code, store or cube is used; the definitions
-# below are taken from the brief (/work/shared/docs/brief.md) and written afresh with vectorised
+# below are taken from the brief (../shared/docs/brief.md beside the repository) and written afresh with vectorised
 # pandas/numpy (no Python loop over rows, nights or cells), so the comparison is against a fair
 # opponent. The slow, per-cell reference for the same definitions is
 # tests/reference/pickup_open_city.py.
@@ -47,7 +47,7 @@
 #   /usr/bin/python3 bench/pandas_pipeline.py --from-cache frame.pkl \
 #       --from 2025-11-01 --to 2026-10-31 --curves-out curves.csv
 #   /usr/bin/python3 bench/pandas_pipeline.py --format open-data \
-#       /work/shared/data/open/hotel_bookings_city.csv --from 2016-06-01 --to 2016-06-30
+#       ../shared/data/open/hotel_bookings_city.csv --from 2016-06-01 --to 2016-06-30
 import argparse
 import os
 import resource

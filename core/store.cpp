@@ -1281,15 +1281,15 @@ StoreSummary Store::summary() const {
       it = into.emplace(std::string(code), 0).first;
     ++it->second;
   };
-  auto minMax = [](std::string &lo, std::string &hi, std::string_view v, bool wantLo) {
-    if (v.empty())
-      return;
-    if (wantLo && (lo.empty() || v < lo))
+  // Dates are stored as YYYY-MM-DD, so text order is date order; NULL reads as "" and is skipped.
+  auto keepMin = [](std::string &lo, std::string_view v) {
+    if (!v.empty() && (lo.empty() || v < lo))
       lo = v;
-    if (hi.empty() || v > hi)
+  };
+  auto keepMax = [](std::string &hi, std::string_view v) {
+    if (!v.empty() && v > hi)
       hi = v;
   };
-  std::string unused;
   while (st.step()) {
     ++s.reservations;
     tally(byStatus, st.columnTextView(0));
@@ -1298,9 +1298,11 @@ StoreSummary Store::summary() const {
     const std::string_view arrival = st.columnTextView(3);
     if (arrival == st.columnTextView(4))
       ++s.dayUse;
-    minMax(firstArrival, lastArrival, arrival, true);
-    minMax(firstBooked, lastBooked, st.columnTextView(5), true);
-    minMax(unused, lastCancelled, st.columnTextView(6), false);
+    keepMin(firstArrival, arrival);
+    keepMax(lastArrival, arrival);
+    keepMin(firstBooked, st.columnTextView(5));
+    keepMax(lastBooked, st.columnTextView(5));
+    keepMax(lastCancelled, st.columnTextView(6));
   }
   st.reset();
   auto asDate = [](const std::string &text) -> std::optional<Date> {
