@@ -3,6 +3,7 @@
 #include "core/csvreader.h"
 #include "core/mappingprofile.h"
 #include "core/nativeformat.h"
+#include "core/reservationsnapshot.h"
 #include "core/sha256.h"
 
 #include <date/date.h>
@@ -363,6 +364,14 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
 
   tx.emplace(store);
   log.id = store.beginImport(log);
+  // The rows written, kept to bring the store's snapshot up to date after the commit
+  // (core/reservationsnapshot.h) without reading a million rows back; beyond a quarter of the
+  // store (or 100,000 rows) they are not kept, and the next read rebuilds the snapshot instead.
+  const std::uint64_t stampBefore = store.reservationStamp();
+  const std::size_t keepAtMost =
+      static_cast<std::size_t>(std::max<std::int64_t>(100000, store.reservationCount() / 4));
+  std::vector<Reservation> written;
+  bool writtenComplete = true;
   const std::string idName = profile->sourceName("reservation_id");
   const int idColumn = profile->sourceColumn("reservation_id");
   // Every id the store holds (with its digest) and every id read so far (with its line): an
@@ -414,10 +423,17 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
       if (idState && idState->inStore && idState->stored == digestOf(r)) {
         ++log.unchanged; // the same as stored: nothing to write
       } else if (lenient || !rowErrors) {
-        switch (store.upsertReservation(r, log.id, idState && idState->inStore)) {
+        const UpsertResult result = store.upsertReservation(r, log.id, idState && idState->inStore);
+        switch (result) {
         case UpsertResult::Added: ++log.added; break;
         case UpsertResult::Updated: ++log.updated; break;
         case UpsertResult::Unchanged: ++log.unchanged; break;
+        }
+        if (result != UpsertResult::Unchanged && writtenComplete) {
+          if (written.size() < keepAtMost)
+            written.push_back(r);
+          else
+            writtenComplete = false;
         }
       }
     } else {
@@ -481,8 +497,12 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
     return rep;
   }
   store.finishImport(log);
+  const std::uint64_t stampAfter = store.reservationStamp(); // this import's own stamp
   tx->commit();
   rep.written = true;
+  if (stampAfter != stampBefore && writtenComplete)
+    updateReservationSnapshot(snapshotPathFor(store.path()), stampBefore, stampAfter,
+                              std::move(written));
   return rep;
 }
 

@@ -1,7 +1,9 @@
 #include "core/store.h"
 
 #include "core/blockrecord.h"
+#include "core/largememory.h"
 #include "core/propertysettings.h"
+#include "core/reservationsnapshot.h"
 #include "core/sha256.h"
 #include "core/sqlite.h"
 
@@ -240,9 +242,21 @@ ALTER TABLE reservations_v7 RENAME TO reservations;
 CREATE INDEX reservations_segment ON reservations (segment);
 )sql";
 
+// The reservation stamp (Store::reservationStamp): a random number replaced in the same
+// transaction as any reservation the store writes, so a copy kept outside the store (the
+// snapshot, core/reservationsnapshot.h) knows whether it still holds the same rows.
+constexpr std::string_view kMigration8 = R"sql(
+CREATE TABLE data_stamps (
+  name TEXT PRIMARY KEY NOT NULL,
+  stamp INTEGER NOT NULL
+);
+INSERT INTO data_stamps (name, stamp) VALUES ('reservations', random());
+)sql";
+
 // Index i migrates schema version i to i + 1; the size ties the list to kSchemaVersion.
 constexpr std::array<std::string_view, Store::kSchemaVersion> kMigrations = {
-    kMigration1, kMigration2, kMigration3, kMigration4, kMigration5, kMigration6, kMigration7};
+    kMigration1, kMigration2, kMigration3, kMigration4,
+    kMigration5, kMigration6, kMigration7, kMigration8};
 
 constexpr std::string_view kReservationColumns =
     "id, status, booked_on, cancelled_on, arrival, departure, rooms, room_type, segment, channel, "
@@ -610,10 +624,23 @@ struct Store::Statements {
             "rooms IS NOT ?7 OR room_type IS NOT ?8 OR segment IS NOT ?9 OR "
             "channel IS NOT ?10 OR rate IS NOT ?11 OR currency IS NOT ?12 OR "
             "block_id IS NOT ?13)",
-            true)) {}
+            true)),
+        bumpReservationStamp(db.prepare(
+            "UPDATE data_stamps SET stamp = random() WHERE name = 'reservations'", true)) {}
 
   SqliteStatement addRoomTypeCode, addSegmentCode, addChannelCode;
-  SqliteStatement insertReservation, updateReservation;
+  SqliteStatement insertReservation, updateReservation, bumpReservationStamp;
+
+  // Whether the open transaction has replaced the reservation stamp yet: once per transaction
+  // is enough, and a rollback undoes it with the rows.
+  bool stampReplaced = false;
+  void replaceStampOnce() {
+    if (stampReplaced)
+      return;
+    bumpReservationStamp.reset();
+    bumpReservationStamp.step();
+    stampReplaced = true;
+  }
 
   // Codes upsertReservation has already made sure of in the open transaction: an import sees
   // the same few codes a million times. Only a rollback could remove them again, so the set
@@ -625,9 +652,11 @@ struct Store::Statements {
     ensureCode(st, code);
     knownCodes[kind].insert(code);
   }
-  void forgetCodes() {
+  /// Called when a Transaction begins and ends: forgets what the last one made sure of.
+  void forgetTransactionState() {
     for (auto &set : knownCodes)
       set.clear();
+    stampReplaced = false;
   }
 };
 
@@ -743,14 +772,14 @@ Store::Transaction::Transaction(Store &store) : store_(store) {
     throw std::logic_error("Store::Transaction: a transaction is already open on this store; "
                            "transactions do not nest");
   store_.requireWritable();
-  store_.stmts_->forgetCodes();
+  store_.stmts_->forgetTransactionState();
   store_.db_->exec("BEGIN IMMEDIATE");
 }
 
 Store::Transaction::~Transaction() {
   if (!done_)
     rollbackQuietly(*store_.db_);
-  store_.stmts_->forgetCodes();
+  store_.stmts_->forgetTransactionState();
 }
 
 void Store::Transaction::commit() {
@@ -758,7 +787,7 @@ void Store::Transaction::commit() {
     throw std::logic_error("Store::Transaction: commit() called twice");
   store_.db_->exec("COMMIT");
   done_ = true;
-  store_.stmts_->forgetCodes();
+  store_.stmts_->forgetTransactionState();
 }
 
 // ---- property and reference data -------------------------------------------------------------
@@ -872,12 +901,17 @@ UpsertResult Store::upsertReservation(const Reservation &r, std::int64_t importI
   if (!stored) {
     bindReservation(s.insertReservation, r, importId);
     s.insertReservation.step();
-    if (db_->changes() == 1)
+    if (db_->changes() == 1) {
+      s.replaceStampOnce();
       return UpsertResult::Added;
+    }
   }
   bindReservation(s.updateReservation, r, importId);
   s.updateReservation.step();
-  return db_->changes() == 1 ? UpsertResult::Updated : UpsertResult::Unchanged;
+  if (db_->changes() != 1)
+    return UpsertResult::Unchanged;
+  s.replaceStampOnce();
+  return UpsertResult::Updated;
 }
 
 void Store::visitReservationDigests(
@@ -900,11 +934,45 @@ void Store::visitReservationDigests(
   }
 }
 
+std::uint64_t Store::reservationStamp() const {
+  return static_cast<std::uint64_t>(
+      db_->queryInt64("SELECT stamp FROM data_stamps WHERE name = 'reservations'"));
+}
+
 std::vector<Reservation> Store::reservations() const {
+  // Inside a write transaction the rows may differ from any snapshot: read the table itself.
+  if (db_->inTransaction())
+    return reservationsFromTable();
+  // One read transaction, so the stamp and the rows come from the same commit even while
+  // another program imports (WAL readers see one consistent state).
+  std::uint64_t stamp = 0;
+  std::vector<Reservation> out;
+  db_->exec("BEGIN");
+  try {
+    stamp = reservationStamp();
+    const fs::path snapshot = snapshotPathFor(path_);
+    if (auto rows = readReservationSnapshot(snapshot, stamp)) {
+      db_->exec("COMMIT");
+      return std::move(*rows);
+    }
+    out = reservationsFromTable();
+    db_->exec("COMMIT");
+  } catch (...) {
+    rollbackQuietly(*db_);
+    throw;
+  }
+  // Best effort: a store opened for reading only leaves its folder alone, and a folder that
+  // cannot be written costs only speed next time.
+  if (!readOnly())
+    writeReservationSnapshot(snapshotPathFor(path_), stamp, out);
+  return out;
+}
+
+std::vector<Reservation> Store::reservationsFromTable() const {
   std::vector<Reservation> out;
   // Reserved: growing a vector of a million reservations moved them all some 20 times, which
   // was half the time of loading the store (measured with perf).
-  out.reserve(static_cast<std::size_t>(reservationCount()));
+  reserveLarge(out, static_cast<std::size_t>(reservationCount()));
   auto st =
       db_->prepare(fmt::format("SELECT {} FROM reservations ORDER BY id", kReservationColumns));
   while (st.step())
@@ -1268,6 +1336,91 @@ std::vector<ImportLogEntry> Store::importLog() const {
 // ---- summary ---------------------------------------------------------------------------------
 
 StoreSummary Store::summary() const {
+  // The snapshot, when current, holds every field the summary needs and reads faster than the
+  // table (0.2 s against 0.8 s at a million rows).
+  if (!db_->inTransaction()) {
+    std::optional<std::vector<Reservation>> rows;
+    db_->exec("BEGIN");
+    try {
+      rows = readReservationSnapshot(snapshotPathFor(path_), reservationStamp());
+      // Still inside the read transaction: the counts come from the same commit as the rows.
+      std::optional<StoreSummary> fromSnapshot;
+      if (rows)
+        fromSnapshot = summaryOf(*rows);
+      db_->exec("COMMIT");
+      if (fromSnapshot)
+        return *fromSnapshot;
+    } catch (...) {
+      rollbackQuietly(*db_);
+      throw;
+    }
+  }
+  return summaryFromTable();
+}
+
+StoreSummary Store::summary(const std::vector<Reservation> &rows) const {
+  const bool own = !db_->inTransaction();
+  if (own)
+    db_->exec("BEGIN");
+  StoreSummary s = summaryOf(rows);
+  if (own)
+    db_->exec("COMMIT");
+  return s;
+}
+
+StoreSummary Store::summaryOf(const std::vector<Reservation> &rows) const {
+  StoreSummary s;
+  s.reservations = static_cast<std::int64_t>(rows.size());
+  std::array<std::int64_t, 4> byStatus{};
+  std::map<std::string, std::int64_t, std::less<>> bySegment, byChannel;
+  std::optional<Date> lastCancelled;
+  auto keepMin = [](std::optional<Date> &lo, Date v) {
+    if (!lo || v < *lo)
+      lo = v;
+  };
+  auto keepMax = [](std::optional<Date> &hi, Date v) {
+    if (!hi || v > *hi)
+      hi = v;
+  };
+  // Consecutive rows mostly share their codes: look the map up only when the code changes.
+  const std::string *lastSegment = nullptr, *lastChannel = nullptr;
+  std::int64_t *segmentCount = nullptr, *channelCount = nullptr;
+  for (const Reservation &r : rows) {
+    ++byStatus[static_cast<std::size_t>(r.status)];
+    if (!lastSegment || r.segment != *lastSegment) {
+      segmentCount = &bySegment[r.segment];
+      lastSegment = &r.segment;
+    }
+    ++*segmentCount;
+    if (!lastChannel || r.channel != *lastChannel) {
+      channelCount = &byChannel[r.channel];
+      lastChannel = &r.channel;
+    }
+    ++*channelCount;
+    if (r.isDayUse())
+      ++s.dayUse;
+    keepMin(s.firstArrival, r.arrival);
+    keepMax(s.lastArrival, r.arrival);
+    keepMin(s.firstBooked, r.bookedOn);
+    keepMax(s.lastBooked, r.bookedOn);
+    if (r.cancelledOn)
+      keepMax(lastCancelled, *r.cancelledOn);
+  }
+  for (std::size_t k = 0; k < byStatus.size(); ++k)
+    if (byStatus[k] > 0)
+      s.byStatus.emplace(statusName(static_cast<ReservationStatus>(k)), byStatus[k]);
+  s.bySegment.insert(bySegment.begin(), bySegment.end());
+  s.byChannel.insert(byChannel.begin(), byChannel.end());
+  s.lastActivity = s.lastBooked;
+  if (lastCancelled && (!s.lastActivity || *lastCancelled > *s.lastActivity))
+    s.lastActivity = lastCancelled;
+  s.blocks = db_->queryInt64("SELECT count(*) FROM group_blocks");
+  s.denials = db_->queryInt64("SELECT count(*) FROM denials");
+  s.events = db_->queryInt64("SELECT count(*) FROM events");
+  return s;
+}
+
+StoreSummary Store::summaryFromTable() const {
   StoreSummary s;
   // One pass in table order, tallied here: GROUP BY on columns without an index made SQLite sort
   // the table three times (4 s at a million rows, measured with perf). Codes are few.

@@ -76,13 +76,14 @@ struct StoreSummary {
   /// Newest booked_on or cancelled_on: the latest reading date the data supports.
   std::optional<Date> lastActivity;
   std::int64_t blocks = 0, denials = 0, events = 0;
+  bool operator==(const StoreSummary &) const = default;
 };
 
 /// A Curvebench property store. Not thread-safe: one Store per thread.
 /// Every write runs inside a transaction; a batch of writes shares one via Transaction.
 class Store {
 public:
-  static constexpr int kSchemaVersion = 7;
+  static constexpr int kSchemaVersion = 8;
 
   /// Creates a new store file; throws StoreError if the file exists.
   static std::unique_ptr<Store> create(const std::filesystem::path &path, const Property &property);
@@ -162,7 +163,13 @@ public:
   /// Calls `visit` with every stored reservation's id and digest, read in one pass of the table.
   void visitReservationDigests(
       const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) const;
-  std::vector<Reservation> reservations() const; ///< ordered by id
+  /// Every reservation, ordered by id. Read from the snapshot beside the store when it was
+  /// written for the current reservationStamp() (core/reservationsnapshot.h), else from the
+  /// table, and then the snapshot is written again (unless the store is read-only).
+  std::vector<Reservation> reservations() const;
+  /// A random number the store replaces, in the same transaction, whenever it adds or changes a
+  /// reservation (schema 8): equal stamps mean the same reservations.
+  std::uint64_t reservationStamp() const;
   std::optional<Reservation> reservation(const std::string &id) const;
   std::int64_t reservationCount() const;
 
@@ -195,7 +202,12 @@ public:
   std::int64_t logFailedImport(const ImportLogEntry &e);
   std::vector<ImportLogEntry> importLog() const;
 
+  /// The counts of `curvebench info` and the workbench's summary: from the snapshot when it is
+  /// current, else from one pass over the table.
   StoreSummary summary() const;
+  /// The same from `rows`, which must be this store's reservations() (the workbench has them in
+  /// memory already); the counts of blocks, denials and events are read from the store.
+  StoreSummary summary(const std::vector<Reservation> &rows) const;
 
   /// Test hook: the store's own connection (its pragmas are per connection).
   SqliteDb &sqliteForTesting() { return *db_; }
@@ -206,6 +218,9 @@ public:
 private:
   Store(std::filesystem::path path, std::unique_ptr<SqliteDb> db);
   std::int64_t insertLogEntry(const ImportLogEntry &e, std::string_view defaultOutcome);
+  std::vector<Reservation> reservationsFromTable() const;
+  StoreSummary summaryOf(const std::vector<Reservation> &rows) const;
+  StoreSummary summaryFromTable() const;
   void requireWritable() const; ///< throws StoreError with readOnlyReason() when read-only
   std::filesystem::path path_;
   std::unique_ptr<SqliteDb> db_;

@@ -11,9 +11,9 @@ std::unique_ptr<WorkbenchSession> WorkbenchSession::open(const std::filesystem::
   auto db = cb::Store::open(store);
   s->path_ = store;
   s->property_ = db->property();
-  s->summary_ = db->summary();
   s->segments_ = db->segments();
   s->reservations_ = db->reservations();
+  s->summary_ = db->summary(s->reservations_); // from the rows in hand: no second pass
   s->nightIndex_ = cb::NightIndex(s->reservations_);
   s->sources_ = {db->closures(), db->denials()};
   s->events_ = db->events();

@@ -1,6 +1,7 @@
 #include "core/reservationimporter.h"
 
 #include "core/nativeformat.h"
+#include "core/reservationsnapshot.h"
 #include "core/sha256.h"
 #include "core/sqlite.h"
 
@@ -369,6 +370,47 @@ TEST(ReservationImporter, NewerExtractUpdatesByIdAndNeverDuplicates) {
   EXPECT_EQ(again.log.updated, 0);
   EXPECT_EQ(again.log.unchanged, 3);
   EXPECT_EQ(store->reservationCount(), 4);
+}
+
+// A daily extract brings the snapshot beside the store (core/reservationsnapshot.h) up to date
+// from the rows it wrote, so the next read need not go back to the table.
+TEST(ReservationImporter, ReimportUpdatesTheSnapshotWithoutReadingTheTable) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const fs::path snapshot = cb::snapshotPathFor(store->path());
+  const auto v1 = tmp / "extract-1.csv";
+  const auto v2 = tmp / "extract-2.csv";
+  cbtest::writeFile(
+      v1, kHeader + "E1,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
+                    "E3,booked,2026-01-03,,2026-03-05,2026-03-06,2,TWN,Group,Agency,70,,G1\n"
+                    "E5,booked,2026-01-04,,2026-03-05,2026-03-06,1,TWN,Group,Agency,70,,G1\n");
+  cbtest::writeFile(
+      v2, kHeader +
+              "E1,cancelled,2026-01-01,2026-02-10,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
+              "E4,booked,2026-02-11,,2026-03-07,2026-03-09,1,DBL,Leisure,Web,88,,\n"
+              "E0,booked,2026-02-12,,2026-03-07,2026-03-08,1,,Leisure,,88.5,EUR,\n");
+  ASSERT_TRUE(cb::importReservations(*store, v1).written);
+  EXPECT_FALSE(fs::exists(snapshot)); // nothing to update yet: the first read writes it
+  const auto before = store->reservations();
+  ASSERT_TRUE(fs::exists(snapshot));
+
+  ASSERT_TRUE(cb::importReservations(*store, v2).written);
+  const auto updated = cb::readReservationSnapshot(snapshot, store->reservationStamp());
+  ASSERT_TRUE(updated.has_value()) << "the import did not bring the snapshot up to date";
+  fs::remove(snapshot);
+  const auto table = store->reservations(); // from the table, since the snapshot is gone
+  EXPECT_EQ(*updated, table);
+  ASSERT_EQ(table.size(), 5U);
+  EXPECT_EQ(table.front().id, "E0"); // new ids take their place in id order
+  EXPECT_EQ(table[1].status, cb::ReservationStatus::Cancelled);
+  EXPECT_EQ(table[1].cancelledOn, cb::Date::fromYmd(2026, 2, 10));
+  EXPECT_NE(table, before);
+
+  // An unchanged extract keeps the stamp, so the snapshot stays good.
+  const std::uint64_t stamp = store->reservationStamp();
+  ASSERT_TRUE(cb::importReservations(*store, v2).written);
+  EXPECT_EQ(store->reservationStamp(), stamp);
+  EXPECT_EQ(cb::readReservationSnapshot(snapshot, stamp), table);
 }
 
 // An import compares each row with a digest of the stored one instead of asking the store; a

@@ -1,0 +1,52 @@
+// A columnar copy of a store's reservations in a file beside it ("<store>.snapshot"), so the
+// commands and the workbench read a million reservations in a fraction of a second instead of
+// asking SQLite for every field of every row (measured: 85 % of `curves` at 1M rows went there).
+//
+// The store stays the only record. The snapshot is a cache keyed by the store's reservation
+// stamp (Store::reservationStamp), a random number the store replaces in the same transaction as
+// any reservation it writes; a snapshot with another stamp, another format, a bad checksum or a
+// short file is ignored and rebuilt from the store. Writing is best effort and atomic (a
+// temporary file renamed over the old one), so a read-only folder or a crash costs only speed.
+#pragma once
+
+#include "core/reservation.h"
+
+#include <cstdint>
+#include <filesystem>
+#include <optional>
+#include <vector>
+
+namespace cb {
+
+/// "<store>.snapshot": where a store's snapshot lives.
+std::filesystem::path snapshotPathFor(const std::filesystem::path &store);
+
+/// The rows of the snapshot at `file` when it exists, is whole and was written for `stamp`;
+/// nullopt otherwise (missing, other stamp, damaged, older or newer format). Never throws for a
+/// bad file.
+std::optional<std::vector<Reservation>> readReservationSnapshot(const std::filesystem::path &file,
+                                                                std::uint64_t stamp);
+
+/// Writes `rows` (in the order given) as the snapshot for `stamp`: to a temporary file in the
+/// same folder, then renamed over `file`. Returns false (and leaves any old file as it was) when
+/// the folder cannot be written.
+bool writeReservationSnapshot(const std::filesystem::path &file, std::uint64_t stamp,
+                              const std::vector<Reservation> &rows);
+
+/// After a write that took the store from stamp `before` to `after` by adding or replacing the
+/// reservations `changed` (and nothing else): when the snapshot at `file` holds the rows of
+/// `before`, writes the rows of `after` (the two merged by id) without reading the store. So a
+/// daily extract that changes a few thousand rows keeps the snapshot current for the next read.
+/// Returns false when there was no such snapshot or it could not be written; the next read then
+/// rebuilds it from the store.
+bool updateReservationSnapshot(const std::filesystem::path &file, std::uint64_t before,
+                               std::uint64_t after, std::vector<Reservation> changed);
+
+/// The snapshot's bytes for `stamp` (what writeReservationSnapshot writes), for tests.
+std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows);
+/// Decodes bytes made by encodeReservationSnapshot; nullopt when they are not a whole snapshot
+/// for `stamp`.
+std::optional<std::vector<Reservation>> decodeReservationSnapshot(std::string_view bytes,
+                                                                  std::uint64_t stamp);
+
+} // namespace cb

@@ -1,0 +1,265 @@
+#include "core/reservationsnapshot.h"
+
+#include "core/simulator.h"
+#include "core/sqlite.h"
+#include "core/store.h"
+#include "testsupport.h"
+
+#include <algorithm>
+#include <fstream>
+#include <sstream>
+
+// The snapshot is a cache of the store's own rows, so every check here compares it with the
+// store's table (or with the rows written), not with an outside value.
+
+namespace {
+
+using cb::Date;
+using cb::Reservation;
+using cb::ReservationStatus;
+using cb::Store;
+namespace fs = std::filesystem;
+
+Date d(int y, unsigned m, unsigned day) { return Date::fromYmd(y, m, day); }
+
+Reservation booking(std::string id, int rooms = 1) {
+  Reservation r;
+  r.id = std::move(id);
+  r.bookedOn = d(2025, 5, 1);
+  r.arrival = d(2025, 6, 10);
+  r.departure = d(2025, 6, 12);
+  r.rooms = rooms;
+  r.roomType = "DBL";
+  r.segment = "CORP";
+  r.channel = "DIRECT";
+  r.rate = 142.25;
+  return r;
+}
+
+/// Every kind of field: a cancellation, empty codes, a block, another currency, a day use, a
+/// long id with non-ASCII bytes.
+std::vector<Reservation> varied() {
+  std::vector<Reservation> rs;
+  rs.push_back(booking("A1", 3));
+  Reservation c = booking("A2");
+  c.status = ReservationStatus::Cancelled;
+  c.cancelledOn = d(2025, 5, 20);
+  c.blockId = "WEDDING-1";
+  rs.push_back(c);
+  Reservation bare = booking("A3");
+  bare.roomType.clear();
+  bare.channel.clear();
+  bare.segment.clear();
+  bare.currency = "EUR";
+  bare.rate = 0.1 + 0.2; // kept to the last bit
+  rs.push_back(bare);
+  Reservation dayUse = booking("A4");
+  dayUse.departure = dayUse.arrival;
+  dayUse.status = ReservationStatus::CheckedOut;
+  rs.push_back(dayUse);
+  Reservation noShow = booking("Zürich-" + std::string(40, 'x'));
+  noShow.status = ReservationStatus::NoShow;
+  rs.push_back(noShow);
+  return rs;
+}
+
+std::string readAll(const fs::path &p) {
+  std::ifstream in(p, std::ios::binary);
+  std::ostringstream os;
+  os << in.rdbuf();
+  return os.str();
+}
+
+TEST(ReservationSnapshot, EncodeDecodeKeepsEveryFieldAndTheOrder) {
+  const auto rows = varied();
+  const std::string bytes = cb::encodeReservationSnapshot(42, rows);
+  const auto back = cb::decodeReservationSnapshot(bytes, 42);
+  ASSERT_TRUE(back.has_value());
+  EXPECT_EQ(*back, rows);
+  // An empty store has a snapshot too.
+  const auto none = cb::decodeReservationSnapshot(cb::encodeReservationSnapshot(7, {}), 7);
+  ASSERT_TRUE(none.has_value());
+  EXPECT_TRUE(none->empty());
+}
+
+TEST(ReservationSnapshot, SampleProperty) {
+  const auto rows = cb::simulateProperty(cb::SimulatorConfig{}).reservations;
+  ASSERT_GT(rows.size(), 50000U);
+  const auto back =
+      cb::decodeReservationSnapshot(cb::encodeReservationSnapshot(0x1234abcd, rows), 0x1234abcd);
+  ASSERT_TRUE(back.has_value());
+  EXPECT_TRUE(*back == rows);
+}
+
+TEST(ReservationSnapshot, RefusesAnotherStampAndDamagedBytes) {
+  const std::string bytes = cb::encodeReservationSnapshot(42, varied());
+  EXPECT_FALSE(cb::decodeReservationSnapshot(bytes, 43).has_value());
+  // Cut anywhere: never accepted, never read past the end (the sanitizer build checks the last).
+  for (std::size_t cut = 0; cut < bytes.size(); ++cut)
+    EXPECT_FALSE(cb::decodeReservationSnapshot(std::string_view(bytes).substr(0, cut), 42))
+        << "cut at " << cut;
+  // One byte changed anywhere: the header checks or the checksum refuse it.
+  for (std::size_t at = 0; at < bytes.size(); ++at) {
+    std::string bad = bytes;
+    bad[at] = static_cast<char>(bad[at] ^ 0x5a);
+    EXPECT_FALSE(cb::decodeReservationSnapshot(bad, 42)) << "byte " << at;
+  }
+  EXPECT_FALSE(cb::decodeReservationSnapshot(bytes + "x", 42));
+}
+
+class SnapshotStoreTest : public ::testing::Test {
+protected:
+  cbtest::TempDir dir;
+  fs::path path = dir / "snapshot.cbstore";
+  fs::path snapshot = cb::snapshotPathFor(path);
+
+  std::unique_ptr<Store> makeStore(const std::vector<Reservation> &rows) {
+    cb::Property p;
+    p.name = "Snapshot Lodge";
+    p.currency = "CHF";
+    p.capacity = 40;
+    auto store = Store::create(path, p);
+    Store::Transaction t(*store);
+    for (const auto &r : rows)
+      store->upsertReservation(r, 0);
+    t.commit();
+    return store;
+  }
+};
+
+TEST_F(SnapshotStoreTest, FirstReadWritesTheSnapshotAndLaterReadsUseIt) {
+  auto store = makeStore(varied());
+  EXPECT_EQ(cb::snapshotPathFor(path).filename(), "snapshot.cbstore.snapshot");
+  ASSERT_FALSE(fs::exists(snapshot));
+  const auto first = store->reservations();
+  ASSERT_EQ(first.size(), 5U);
+  ASSERT_TRUE(fs::exists(snapshot));
+  EXPECT_EQ(cb::readReservationSnapshot(snapshot, store->reservationStamp()), first);
+
+  // A change made behind the store's back (no stamp change) is not seen: proof that the second
+  // read came from the snapshot. Only a program other than Curvebench can do this.
+  store->sqliteForTesting().exec("UPDATE reservations SET rooms = 9 WHERE id = 'A1'");
+  EXPECT_EQ(store->reservations(), first);
+
+  // A change through the store replaces the stamp, so the table is read (and A1's 9 rooms with
+  // it) and the snapshot is written again.
+  const std::uint64_t before = store->reservationStamp();
+  {
+    Store::Transaction t(*store);
+    EXPECT_EQ(store->upsertReservation(booking("B1"), 0), cb::UpsertResult::Added);
+    t.commit();
+  }
+  EXPECT_NE(store->reservationStamp(), before);
+  const auto after = store->reservations();
+  ASSERT_EQ(after.size(), 6U);
+  EXPECT_EQ(after[0].rooms, 9);
+  EXPECT_EQ(after[4].id, "B1"); // in id order, before "Zürich-…"
+  EXPECT_EQ(cb::readReservationSnapshot(snapshot, store->reservationStamp()), after);
+}
+
+TEST_F(SnapshotStoreTest, StampChangesOnlyWhenRowsDoAndSurvivesReopening) {
+  auto store = makeStore(varied());
+  const std::uint64_t stamp = store->reservationStamp();
+  {
+    // Unchanged rows: no new stamp.
+    Store::Transaction t(*store);
+    for (const auto &r : varied())
+      EXPECT_EQ(store->upsertReservation(r, 0), cb::UpsertResult::Unchanged);
+    t.commit();
+  }
+  EXPECT_EQ(store->reservationStamp(), stamp);
+  {
+    // A rolled-back change: the stamp goes back with the rows.
+    Store::Transaction t(*store);
+    EXPECT_EQ(store->upsertReservation(booking("A1", 7), 0), cb::UpsertResult::Updated);
+  }
+  EXPECT_EQ(store->reservationStamp(), stamp);
+  {
+    Store::Transaction t(*store);
+    EXPECT_EQ(store->upsertReservation(booking("A1", 7), 0), cb::UpsertResult::Updated);
+    t.commit();
+  }
+  const std::uint64_t changed = store->reservationStamp();
+  EXPECT_NE(changed, stamp);
+  store.reset();
+  EXPECT_EQ(Store::open(path)->reservationStamp(), changed);
+}
+
+TEST_F(SnapshotStoreTest, DamagedOrForeignSnapshotIsRebuiltFromTheTable) {
+  auto store = makeStore(varied());
+  const auto rows = store->reservations();
+  // Garbage, and a whole snapshot written for another stamp (a store copied over this one).
+  for (const std::string &bytes :
+       {std::string("not a snapshot"),
+        cb::encodeReservationSnapshot(store->reservationStamp() + 1, {booking("GHOST")})}) {
+    {
+      std::ofstream out(snapshot, std::ios::binary | std::ios::trunc);
+      out << bytes;
+    }
+    EXPECT_EQ(store->reservations(), rows);
+    EXPECT_EQ(readAll(snapshot), cb::encodeReservationSnapshot(store->reservationStamp(), rows));
+  }
+}
+
+TEST_F(SnapshotStoreTest, ReadOnlyStoreReadsButNeverWritesTheSnapshot) {
+  const auto rows = varied();
+  makeStore(rows).reset();
+  {
+    auto reader = Store::open(path, Store::Access::ReadOnly);
+    EXPECT_EQ(reader->reservations().size(), rows.size());
+  }
+  EXPECT_FALSE(fs::exists(snapshot));
+  const auto written = Store::open(path)->reservations();
+  ASSERT_TRUE(fs::exists(snapshot));
+  auto reader = Store::open(path, Store::Access::ReadOnly);
+  EXPECT_EQ(reader->reservations(), written);
+}
+
+TEST_F(SnapshotStoreTest, InsideAWriteTransactionTheTableIsRead) {
+  auto store = makeStore(varied());
+  store->reservations(); // snapshot written
+  Store::Transaction t(*store);
+  store->upsertReservation(booking("C1"), 0);
+  EXPECT_EQ(store->reservations().size(), 6U); // the open transaction's own rows
+}
+
+TEST_F(SnapshotStoreTest, OlderStoreGetsAStampWhenMigrated) {
+  cb::Property p;
+  p.name = "Old Lodge";
+  p.currency = "CHF";
+  p.capacity = 10;
+  Store::createAtVersionForTesting(path, p, 7);
+  auto store = Store::open(path);
+  EXPECT_EQ(store->schemaVersion(), 8);
+  const std::uint64_t stamp = store->reservationStamp();
+  {
+    Store::Transaction t(*store);
+    store->upsertReservation(booking("M1"), 0);
+    t.commit();
+  }
+  EXPECT_NE(store->reservationStamp(), stamp);
+  EXPECT_EQ(store->reservations().size(), 1U);
+}
+
+// The summary from the table, from the snapshot and from rows in memory are the same counts.
+TEST_F(SnapshotStoreTest, SummaryIsTheSameFromTableSnapshotAndRows) {
+  auto rows = cb::simulateProperty(cb::SimulatorConfig{}).reservations;
+  rows.push_back(varied()[1]); // a block id, a cancellation
+  rows.push_back(varied()[2]); // empty codes
+  rows.push_back(varied()[3]); // a day use
+  auto store = makeStore(rows);
+  store->addEvent({d(2025, 6, 1), d(2025, 6, 3), "Lake festival"});
+  const cb::StoreSummary fromTable = store->summary(); // no snapshot yet
+  ASSERT_FALSE(fs::exists(snapshot));
+  EXPECT_EQ(fromTable.reservations, static_cast<std::int64_t>(rows.size()));
+  EXPECT_EQ(fromTable.dayUse, 1 + std::count_if(rows.begin(), rows.end() - 3,
+                                                [](const Reservation &r) { return r.isDayUse(); }));
+  EXPECT_EQ(fromTable.bySegment.at(""), 1);
+  EXPECT_EQ(fromTable.events, 1);
+  const auto loaded = store->reservations(); // writes the snapshot
+  ASSERT_TRUE(fs::exists(snapshot));
+  EXPECT_EQ(store->summary(), fromTable);
+  EXPECT_EQ(store->summary(loaded), fromTable);
+}
+
+} // namespace
