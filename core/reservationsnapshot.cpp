@@ -1,6 +1,7 @@
 #include "core/reservationsnapshot.h"
 
 #include "core/largememory.h"
+#include "core/store.h"
 
 #include <fmt/format.h>
 
@@ -12,6 +13,7 @@
 #include <functional>
 #include <iterator>
 #include <limits>
+#include <memory>
 #include <random>
 #include <string>
 #include <string_view>
@@ -29,65 +31,272 @@
 #include <sstream>
 #endif
 
-// Hand-written: the format is a handful of flat arrays (one per field) behind a header, read with
-// memcpy. No Debian library we use offers a columnar file of our own record; SQLite is what it
-// caches, and a serialisation library would add a dependency for ~150 lines.
+// Hand-written: the format is a handful of flat arrays (one per field) behind a header, read in
+// place. No Debian library we use offers a columnar file of our own record; SQLite is what it
+// caches, and a serialisation library would add a dependency for ~300 lines.
+//
+// Layout (format 2, the machine's byte order, recorded in the header):
+//   header, 64 bytes: magic, format, byte order, stamp, rows n, payload bytes, checksum of the
+//     payload, id bytes, zero
+//   payload: id lengths u32[n], ids, status u8[n], booked_on, cancelled_on, arrival, departure
+//     i32[n] each (days; cancelled_on INT32_MIN when none), rooms i32[n], rate f64[n], room type,
+//     segment, channel, currency, block u32[n] each (indexes into the texts), digests
+//     2 x u64[n] (digestOf, what an import compares), then the texts: u32 count, and for each
+//     u32 length and bytes (index 0 is the empty text).
 
 namespace cb {
 namespace fs = std::filesystem;
 namespace {
 
 constexpr std::array<char, 8> kMagic = {'C', 'B', 'R', 'S', 'N', 'A', 'P', '\0'};
-constexpr std::uint32_t kFormat = 1;
+constexpr std::uint32_t kFormat = 2;
 constexpr std::uint32_t kByteOrder = 0x01020304; // a file from another byte order is ignored
 constexpr std::int32_t kNoDate = std::numeric_limits<std::int32_t>::min();
-constexpr std::size_t kHeaderBytes = 48;
+constexpr std::size_t kHeaderBytes = 64;
+constexpr std::size_t kCodes = 5;
+// The bytes of one row outside its id and the texts.
+constexpr std::size_t kRowBytes = 4 + 1 + 4 * 4 + 4 + 8 + kCodes * 4 + 16;
 
-template <class T> void put(std::string &out, const T &value) {
-  char bytes[sizeof(T)];
-  std::memcpy(bytes, &value, sizeof(T));
-  out.append(bytes, sizeof(T));
-}
-
-template <class T> void putArray(std::string &out, const std::vector<T> &values) {
-  out.append(reinterpret_cast<const char *>(values.data()), values.size() * sizeof(T));
-}
-
-/// Bounds-checked reading of the payload: every take fails, rather than reads past the end, on
-/// a short or damaged file.
-class Cursor {
-public:
-  explicit Cursor(std::string_view bytes) : bytes_(bytes) {}
-  template <class T> bool take(T &value) {
-    if (bytes_.size() - pos_ < sizeof(T))
-      return false;
-    std::memcpy(&value, bytes_.data() + pos_, sizeof(T));
-    pos_ += sizeof(T);
-    return true;
+/// Where each column starts in the payload, from the row count and the id bytes.
+struct Layout {
+  std::size_t n = 0;
+  std::size_t idLengths = 0, ids = 0, status = 0, dates = 0, rooms = 0, rate = 0, codes = 0,
+              digests = 0, texts = 0;
+  Layout(std::size_t rows, std::size_t idBytes) : n(rows) {
+    ids = idLengths + 4 * n;
+    status = ids + idBytes;
+    dates = status + n;
+    rooms = dates + 4 * 4 * n;
+    rate = rooms + 4 * n;
+    codes = rate + 8 * n;
+    digests = codes + kCodes * 4 * n;
+    texts = digests + 16 * n;
   }
-  bool takeText(std::string_view &text, std::size_t n) {
-    if (n > bytes_.size() - pos_)
-      return false;
-    text = bytes_.substr(pos_, n);
-    pos_ += n;
-    return true;
-  }
-  bool atEnd() const { return pos_ == bytes_.size(); }
-
-private:
-  std::string_view bytes_;
-  std::size_t pos_ = 0;
+  std::size_t date(std::size_t k, std::size_t i) const { return dates + (k * n + i) * 4; }
+  std::size_t code(std::size_t k, std::size_t i) const { return codes + (k * n + i) * 4; }
 };
 
-// The fewest bytes a row takes in the payload: id length, status, four dates, rooms, rate and
-// five code indexes (an id of no bytes).
-constexpr std::size_t kMinRowBytes = 4 + 1 + 4 * 4 + 4 + 8 + 5 * 4;
-
-/// Element i of a column of T read in place (the file gives no alignment).
-template <class T> T load(std::string_view column, std::size_t i) {
+template <class T> void store(char *at, const T &value) { std::memcpy(at, &value, sizeof(T)); }
+template <class T> T load(const char *at) {
   T value;
-  std::memcpy(&value, column.data() + i * sizeof(T), sizeof(T));
+  std::memcpy(&value, at, sizeof(T));
   return value;
+}
+
+std::uint64_t checksumOf(std::string_view payload) {
+  // libstdc++'s std::hash of a string view is a 64-bit MurmurHash: fast, and enough to catch a
+  // damaged or half-written file (the rename makes the latter unlikely anyway).
+  return static_cast<std::uint64_t>(std::hash<std::string_view>{}(payload));
+}
+
+/// A whole snapshot's bytes, built in one pass over the rows.
+class Encoded {
+public:
+  Encoded(std::uint64_t stamp, const std::vector<Reservation> &rows) {
+    const std::size_t n = rows.size();
+    // First pass: the id bytes, and each distinct code once (rows keep its index). Consecutive
+    // rows mostly share their codes, so the map is asked only when a code changes.
+    std::vector<std::string_view> texts{std::string_view()};
+    std::unordered_map<std::string_view, std::uint32_t> indexOf{{std::string_view(), 0}};
+    std::vector<std::array<std::uint32_t, kCodes>> codeOf(n);
+    std::array<const std::string *, kCodes> last{};
+    std::array<std::uint32_t, kCodes> lastIndex{};
+    std::size_t idBytes = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+      const Reservation &r = rows[i];
+      idBytes += r.id.size();
+      const std::array<const std::string *, kCodes> code = {&r.roomType, &r.segment, &r.channel,
+                                                            &r.currency, &r.blockId};
+      for (std::size_t k = 0; k < kCodes; ++k) {
+        if (!last[k] || *code[k] != *last[k]) {
+          auto [it, added] =
+              indexOf.try_emplace(*code[k], static_cast<std::uint32_t>(texts.size()));
+          if (added)
+            texts.push_back(*code[k]);
+          last[k] = code[k];
+          lastIndex[k] = it->second;
+        }
+        codeOf[i][k] = lastIndex[k];
+      }
+    }
+    std::size_t textBytes = 4;
+    for (std::string_view t : texts)
+      textBytes += 4 + t.size();
+    const Layout at(n, idBytes);
+    payloadBytes_ = at.texts + textBytes;
+    size_ = kHeaderBytes + payloadBytes_;
+    // Not zero-filled: every byte is written below.
+    bytes_.reset(new char[size_]);
+    adviseHugePages(bytes_.get(), size_);
+    char *p = bytes_.get() + kHeaderBytes;
+
+    // Second pass: every field into its column.
+    std::size_t idPos = at.ids;
+    for (std::size_t i = 0; i < n; ++i) {
+      const Reservation &r = rows[i];
+      store(p + at.idLengths + 4 * i, static_cast<std::uint32_t>(r.id.size()));
+      std::memcpy(p + idPos, r.id.data(), r.id.size());
+      idPos += r.id.size();
+      p[at.status + i] = static_cast<char>(static_cast<std::uint8_t>(r.status));
+      store(p + at.date(0, i), r.bookedOn.days());
+      store(p + at.date(1, i), r.cancelledOn ? r.cancelledOn->days() : kNoDate);
+      store(p + at.date(2, i), r.arrival.days());
+      store(p + at.date(3, i), r.departure.days());
+      store(p + at.rooms + 4 * i, static_cast<std::int32_t>(r.rooms));
+      store(p + at.rate + 8 * i, r.rate);
+      for (std::size_t k = 0; k < kCodes; ++k)
+        store(p + at.code(k, i), codeOf[i][k]);
+      const ReservationDigest d = digestOf(r);
+      store(p + at.digests + 16 * i, d.a);
+      store(p + at.digests + 16 * i + 8, d.b);
+    }
+    char *t = p + at.texts;
+    store(t, static_cast<std::uint32_t>(texts.size()));
+    t += 4;
+    for (std::string_view text : texts) {
+      store(t, static_cast<std::uint32_t>(text.size()));
+      std::memcpy(t + 4, text.data(), text.size());
+      t += 4 + text.size();
+    }
+
+    char *h = bytes_.get();
+    std::memcpy(h, kMagic.data(), kMagic.size());
+    store(h + 8, kFormat);
+    store(h + 12, kByteOrder);
+    store(h + 16, stamp);
+    store(h + 24, static_cast<std::uint64_t>(n));
+    store(h + 32, static_cast<std::uint64_t>(payloadBytes_));
+    store(h + 40, checksumOf(std::string_view(p, payloadBytes_)));
+    store(h + 48, static_cast<std::uint64_t>(idBytes));
+    store(h + 56, std::uint64_t{0});
+  }
+  std::string_view bytes() const { return {bytes_.get(), size_}; }
+
+private:
+  std::unique_ptr<char[]> bytes_;
+  std::size_t size_ = 0, payloadBytes_ = 0;
+};
+
+/// A snapshot's bytes checked whole (header, stamp, sizes, checksum, texts) and its columns
+/// located; every accessor below then stays inside the bytes.
+class Decoded {
+public:
+  Decoded(std::string_view bytes, std::uint64_t stamp) {
+    if (bytes.size() < kHeaderBytes || std::memcmp(bytes.data(), kMagic.data(), kMagic.size()))
+      return;
+    const char *h = bytes.data();
+    const auto count = load<std::uint64_t>(h + 24);
+    const auto payloadBytes = load<std::uint64_t>(h + 32);
+    const auto idBytes = load<std::uint64_t>(h + 48);
+    payload_ = bytes.substr(kHeaderBytes);
+    if (load<std::uint32_t>(h + 8) != kFormat || load<std::uint32_t>(h + 12) != kByteOrder ||
+        load<std::uint64_t>(h + 16) != stamp || payloadBytes != payload_.size() ||
+        load<std::uint64_t>(h + 56) != 0)
+      return;
+    // Sizes no file of this length could hold are refused before any arithmetic on them.
+    if (count > payload_.size() / kRowBytes || idBytes > payload_.size())
+      return;
+    if (checksumOf(payload_) != load<std::uint64_t>(h + 40))
+      return;
+    layout_ = Layout(static_cast<std::size_t>(count), static_cast<std::size_t>(idBytes));
+    const std::size_t n = layout_.n;
+    if (layout_.texts + 4 > payload_.size())
+      return;
+    std::size_t sum = 0;
+    for (std::size_t i = 0; i < n; ++i)
+      sum += idLength(i);
+    if (sum != idBytes)
+      return;
+    // The texts, to the last byte.
+    std::size_t pos = layout_.texts;
+    const auto textCount = load<std::uint32_t>(payload_.data() + pos);
+    pos += 4;
+    if (textCount == 0 || textCount > payload_.size())
+      return;
+    texts_.reserve(textCount);
+    for (std::uint32_t k = 0; k < textCount; ++k) {
+      if (payload_.size() - pos < 4)
+        return;
+      const auto length = load<std::uint32_t>(payload_.data() + pos);
+      pos += 4;
+      if (payload_.size() - pos < length)
+        return;
+      texts_.emplace_back(payload_.substr(pos, length));
+      pos += length;
+    }
+    if (pos != payload_.size() || !texts_[0].empty())
+      return;
+    ok_ = true;
+  }
+  bool ok() const { return ok_; }
+  std::size_t size() const { return layout_.n; }
+  std::uint32_t idLength(std::size_t i) const {
+    return load<std::uint32_t>(payload_.data() + layout_.idLengths + 4 * i);
+  }
+  /// Calls visit(i, id) for every row in order.
+  template <class F> void forEachId(F &&visit) const {
+    std::size_t pos = layout_.ids;
+    for (std::size_t i = 0; i < layout_.n; ++i) {
+      const std::uint32_t length = idLength(i);
+      visit(i, payload_.substr(pos, length));
+      pos += length;
+    }
+  }
+  ReservationDigest digest(std::size_t i) const {
+    const char *d = payload_.data() + layout_.digests + 16 * i;
+    return {load<std::uint64_t>(d), load<std::uint64_t>(d + 8)};
+  }
+  /// Row i without its id; nullopt when a field is out of range (a status or a code index).
+  bool fill(std::size_t i, Reservation &r) const {
+    const char *p = payload_.data();
+    const auto status = static_cast<std::uint8_t>(p[layout_.status + i]);
+    if (status > static_cast<std::uint8_t>(ReservationStatus::CheckedOut))
+      return false;
+    std::array<std::uint32_t, kCodes> code{};
+    for (std::size_t k = 0; k < kCodes; ++k) {
+      code[k] = load<std::uint32_t>(p + layout_.code(k, i));
+      if (code[k] >= texts_.size())
+        return false;
+    }
+    r.status = static_cast<ReservationStatus>(status);
+    r.bookedOn = Date::fromDays(load<std::int32_t>(p + layout_.date(0, i)));
+    if (const auto cancelled = load<std::int32_t>(p + layout_.date(1, i)); cancelled != kNoDate)
+      r.cancelledOn = Date::fromDays(cancelled);
+    r.arrival = Date::fromDays(load<std::int32_t>(p + layout_.date(2, i)));
+    r.departure = Date::fromDays(load<std::int32_t>(p + layout_.date(3, i)));
+    r.rooms = load<std::int32_t>(p + layout_.rooms + 4 * i);
+    r.rate = load<double>(p + layout_.rate + 8 * i);
+    r.roomType = texts_[code[0]];
+    r.segment = texts_[code[1]];
+    r.channel = texts_[code[2]];
+    r.currency = texts_[code[3]];
+    r.blockId = texts_[code[4]];
+    return true;
+  }
+
+private:
+  std::string_view payload_;
+  Layout layout_{0, 0};
+  std::vector<std::string_view> texts_;
+  bool ok_ = false;
+};
+
+std::optional<std::vector<Reservation>> rowsOf(const Decoded &in) {
+  if (!in.ok())
+    return std::nullopt;
+  std::vector<Reservation> rows;
+  reserveLarge(rows, in.size());
+  bool good = true;
+  in.forEachId([&](std::size_t i, std::string_view id) {
+    if (!good)
+      return;
+    Reservation &r = rows.emplace_back();
+    r.id.assign(id);
+    good = in.fill(i, r);
+  });
+  if (!good)
+    return std::nullopt;
+  return rows;
 }
 
 /// The file's bytes mapped read-only (MAP_POPULATE: the page cache mapped in one call, no copy);
@@ -126,8 +335,13 @@ public:
   }
   MappedFile(const MappedFile &) = delete;
   MappedFile &operator=(const MappedFile &) = delete;
-  bool ok() const { return bytes_.data() != nullptr; }
-  std::string_view bytes() const { return bytes_; }
+  /// The bytes when the file exists and is at least a header long, and was written for `stamp`
+  /// (checked first: a snapshot for another stamp is not worth checking whole); else empty.
+  std::string_view bytesFor(std::uint64_t stamp) const {
+    if (bytes_.size() < kHeaderBytes || load<std::uint64_t>(bytes_.data() + 16) != stamp)
+      return {};
+    return bytes_;
+  }
 
 private:
   void *map_ = nullptr;
@@ -135,187 +349,50 @@ private:
   std::string_view bytes_;
 };
 
-std::uint64_t checksumOf(std::string_view payload) {
-  // libstdc++'s std::hash of a string view is a 64-bit MurmurHash: fast, and enough to catch a
-  // damaged or half-written file (the rename makes the latter unlikely anyway).
-  return static_cast<std::uint64_t>(std::hash<std::string_view>{}(payload));
-}
-
 } // namespace
 
 fs::path snapshotPathFor(const fs::path &store) { return fs::path(store.string() + ".snapshot"); }
 
 std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows) {
-  const std::size_t n = rows.size();
-  // Codes (room type, segment, channel, currency, block) are a few distinct texts repeated a
-  // million times: each is written once and rows keep its index. Index 0 is the empty text.
-  std::vector<std::string_view> texts{std::string_view()};
-  std::unordered_map<std::string_view, std::uint32_t> indexOf{{std::string_view(), 0}};
-  auto intern = [&](const std::string &s) {
-    auto [it, added] = indexOf.try_emplace(s, static_cast<std::uint32_t>(texts.size()));
-    if (added)
-      texts.push_back(s);
-    return it->second;
-  };
-  std::vector<std::uint8_t> status(n);
-  std::vector<std::int32_t> bookedOn(n), cancelledOn(n), arrival(n), departure(n), rooms(n);
-  std::vector<double> rate(n);
-  std::vector<std::uint32_t> roomType(n), segment(n), channel(n), currency(n), block(n),
-      idLength(n);
-  std::size_t idBytes = 0;
-  for (std::size_t i = 0; i < n; ++i) {
-    const Reservation &r = rows[i];
-    status[i] = static_cast<std::uint8_t>(r.status);
-    bookedOn[i] = r.bookedOn.days();
-    cancelledOn[i] = r.cancelledOn ? r.cancelledOn->days() : kNoDate;
-    arrival[i] = r.arrival.days();
-    departure[i] = r.departure.days();
-    rooms[i] = r.rooms;
-    rate[i] = r.rate;
-    roomType[i] = intern(r.roomType);
-    segment[i] = intern(r.segment);
-    channel[i] = intern(r.channel);
-    currency[i] = intern(r.currency);
-    block[i] = intern(r.blockId);
-    idLength[i] = static_cast<std::uint32_t>(r.id.size());
-    idBytes += r.id.size();
-  }
-
-  std::string payload;
-  payload.reserve(64 + idBytes + n * 53);
-  put(payload, static_cast<std::uint32_t>(texts.size()));
-  for (std::string_view t : texts) {
-    put(payload, static_cast<std::uint32_t>(t.size()));
-    payload.append(t);
-  }
-  putArray(payload, idLength);
-  for (const Reservation &r : rows)
-    payload.append(r.id);
-  putArray(payload, status);
-  for (const auto *column : {&bookedOn, &cancelledOn, &arrival, &departure, &rooms})
-    putArray(payload, *column);
-  putArray(payload, rate);
-  for (const auto *column : {&roomType, &segment, &channel, &currency, &block})
-    putArray(payload, *column);
-
-  std::string out;
-  out.reserve(kHeaderBytes + payload.size());
-  out.append(kMagic.data(), kMagic.size());
-  put(out, kFormat);
-  put(out, kByteOrder);
-  put(out, stamp);
-  put(out, static_cast<std::uint64_t>(n));
-  put(out, static_cast<std::uint64_t>(payload.size()));
-  put(out, checksumOf(payload));
-  out += payload;
-  return out;
+  return std::string(Encoded(stamp, rows).bytes());
 }
 
 std::optional<std::vector<Reservation>> decodeReservationSnapshot(std::string_view bytes,
                                                                   std::uint64_t stamp) {
-  if (bytes.size() < kHeaderBytes || std::memcmp(bytes.data(), kMagic.data(), kMagic.size()) != 0)
-    return std::nullopt;
-  Cursor head(bytes.substr(kMagic.size(), kHeaderBytes - kMagic.size()));
-  std::uint32_t format = 0, order = 0;
-  std::uint64_t fileStamp = 0, count = 0, payloadBytes = 0, checksum = 0;
-  if (!head.take(format) || !head.take(order) || !head.take(fileStamp) || !head.take(count) ||
-      !head.take(payloadBytes) || !head.take(checksum))
-    return std::nullopt;
-  const std::string_view payload = bytes.substr(kHeaderBytes);
-  if (format != kFormat || order != kByteOrder || fileStamp != stamp ||
-      payloadBytes != payload.size() || checksumOf(payload) != checksum)
-    return std::nullopt;
-
-  Cursor in(payload);
-  std::uint32_t textCount = 0;
-  if (!in.take(textCount) || textCount == 0)
-    return std::nullopt;
-  std::vector<std::string> texts(textCount);
-  for (auto &t : texts) {
-    std::uint32_t length = 0;
-    std::string_view view;
-    if (!in.take(length) || !in.takeText(view, length))
-      return std::nullopt;
-    t.assign(view);
-  }
-  // A count no file of this size could hold is refused before anything is allocated for it.
-  if (count > payload.size() / kMinRowBytes)
-    return std::nullopt;
-  const auto n = static_cast<std::size_t>(count);
-  // The columns are read in place (no copy of the file's bytes): first find where each starts.
-  std::string_view idLengths, ids, status, dates[4], rooms, rate, codes[5];
-  if (!in.takeText(idLengths, n * 4))
-    return std::nullopt;
-  std::size_t idBytes = 0;
-  for (std::size_t i = 0; i < n; ++i)
-    idBytes += load<std::uint32_t>(idLengths, i);
-  if (!in.takeText(ids, idBytes) || !in.takeText(status, n))
-    return std::nullopt;
-  for (auto &column : dates)
-    if (!in.takeText(column, n * 4))
-      return std::nullopt;
-  if (!in.takeText(rooms, n * 4) || !in.takeText(rate, n * 8))
-    return std::nullopt;
-  for (auto &column : codes)
-    if (!in.takeText(column, n * 4))
-      return std::nullopt;
-  if (!in.atEnd())
-    return std::nullopt;
-
-  std::vector<Reservation> rows;
-  reserveLarge(rows, n);
-  std::size_t idPos = 0;
-  for (std::size_t i = 0; i < n; ++i) {
-    const auto st = static_cast<std::uint8_t>(status[i]);
-    std::array<std::uint32_t, 5> code{};
-    for (std::size_t k = 0; k < code.size(); ++k) {
-      code[k] = load<std::uint32_t>(codes[k], i);
-      if (code[k] >= textCount)
-        return std::nullopt;
-    }
-    if (st > static_cast<std::uint8_t>(ReservationStatus::CheckedOut))
-      return std::nullopt;
-    Reservation &r = rows.emplace_back();
-    const std::uint32_t idLength = load<std::uint32_t>(idLengths, i);
-    r.id.assign(ids.substr(idPos, idLength));
-    idPos += idLength;
-    r.status = static_cast<ReservationStatus>(st);
-    r.bookedOn = Date::fromDays(load<std::int32_t>(dates[0], i));
-    if (const auto cancelled = load<std::int32_t>(dates[1], i); cancelled != kNoDate)
-      r.cancelledOn = Date::fromDays(cancelled);
-    r.arrival = Date::fromDays(load<std::int32_t>(dates[2], i));
-    r.departure = Date::fromDays(load<std::int32_t>(dates[3], i));
-    r.rooms = load<std::int32_t>(rooms, i);
-    r.rate = load<double>(rate, i);
-    r.roomType = texts[code[0]];
-    r.segment = texts[code[1]];
-    r.channel = texts[code[2]];
-    r.currency = texts[code[3]];
-    r.blockId = texts[code[4]];
-  }
-  return rows;
+  return rowsOf(Decoded(bytes, stamp));
 }
 
 std::optional<std::vector<Reservation>> readReservationSnapshot(const fs::path &file,
                                                                 std::uint64_t stamp) {
-  MappedFile map(file);
-  if (!map.ok() || map.bytes().size() < kHeaderBytes)
+  const MappedFile map(file);
+  const std::string_view bytes = map.bytesFor(stamp);
+  if (bytes.empty())
     return std::nullopt;
-  // The header first: a snapshot for another stamp is not worth checking whole.
-  std::uint64_t fileStamp = 0;
-  std::memcpy(&fileStamp, map.bytes().data() + 16, sizeof fileStamp);
-  if (fileStamp != stamp)
-    return std::nullopt;
-  return decodeReservationSnapshot(map.bytes(), stamp);
+  return rowsOf(Decoded(bytes, stamp));
+}
+
+bool visitSnapshotDigests(
+    const fs::path &file, std::uint64_t stamp,
+    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) {
+  const MappedFile map(file);
+  const std::string_view bytes = map.bytesFor(stamp);
+  if (bytes.empty())
+    return false;
+  const Decoded in(bytes, stamp);
+  if (!in.ok())
+    return false;
+  in.forEachId([&](std::size_t i, std::string_view id) { visit(std::string(id), in.digest(i)); });
+  return true;
 }
 
 bool writeReservationSnapshot(const fs::path &file, std::uint64_t stamp,
                               const std::vector<Reservation> &rows) {
-  const std::string bytes = encodeReservationSnapshot(stamp, rows);
+  const Encoded encoded(stamp, rows);
+  const std::string_view bytes = encoded.bytes();
   // A name no other writer uses, so two programs refreshing the same snapshot never mix bytes;
   // the rename then replaces the file in one step.
   const fs::path temp =
-      fs::path(fmt::format("{}.{:016x}.tmp", file.string(), std::random_device{}()));
+      fs::path(fmt::format("{}.{:08x}.tmp", file.string(), std::random_device{}()));
   {
     std::ofstream out(temp, std::ios::binary | std::ios::trunc);
     if (!out)
@@ -347,7 +424,7 @@ bool updateReservationSnapshot(const fs::path &file, std::uint64_t before, std::
   auto byId = [](const Reservation &a, const Reservation &b) { return a.id < b.id; };
   std::sort(changed.begin(), changed.end(), byId);
   std::vector<Reservation> merged;
-  merged.reserve(base->size() + changed.size());
+  reserveLarge(merged, base->size() + changed.size());
   auto old = base->begin();
   for (auto &c : changed) {
     while (old != base->end() && old->id < c.id)

@@ -10,9 +10,11 @@
 #pragma once
 
 #include "core/reservation.h"
+#include "core/store.h"
 
 #include <cstdint>
 #include <filesystem>
+#include <functional>
 #include <optional>
 #include <vector>
 
@@ -26,6 +28,13 @@ std::filesystem::path snapshotPathFor(const std::filesystem::path &store);
 /// bad file.
 std::optional<std::vector<Reservation>> readReservationSnapshot(const std::filesystem::path &file,
                                                                 std::uint64_t stamp);
+
+/// Calls `visit` with the id and digest (digestOf) of every row of the snapshot at `file`, in id
+/// order, when it is whole and was written for `stamp`, and returns true; false (nothing
+/// visited) otherwise. What an import compares its rows with, without reading the rows.
+bool visitSnapshotDigests(
+    const std::filesystem::path &file, std::uint64_t stamp,
+    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit);
 
 /// Writes `rows` (in the order given) as the snapshot for `stamp`: to a temporary file in the
 /// same folder, then renamed over `file`. Returns false (and leaves any old file as it was) when

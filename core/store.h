@@ -160,7 +160,8 @@ public:
   /// The same, when the caller already knows whether the id is stored (from
   /// reservationDigests): a new id is inserted at once, a stored one updated at once.
   UpsertResult upsertReservation(const Reservation &r, std::int64_t importId, bool stored);
-  /// Calls `visit` with every stored reservation's id and digest, read in one pass of the table.
+  /// Calls `visit` with every stored reservation's id and digest, in id order: from the
+  /// snapshot when it is current, else in one pass of the table.
   void visitReservationDigests(
       const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) const;
   /// Every reservation, ordered by id. Read from the snapshot beside the store when it was
