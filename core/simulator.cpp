@@ -33,14 +33,25 @@ constexpr std::size_t kStd = 0;
 constexpr std::size_t kSup = 1;
 constexpr int kRefurbishedRooms = 12; // superior rooms closed in early 2025
 
-enum SegmentIndex : std::size_t { Flex, Corp, Adv, Grp, Whl, kSegments };
-constexpr std::array<const char *, kSegments> kSegCodes{"FLEX", "CORP", "ADV", "GRP", "WHL"};
-constexpr std::array<const char *, kSegments> kSegNames{"Flexible retail", "Corporate negotiated",
-                                                        "Advance purchase", "Groups",
-                                                        "Wholesale and tour operators"};
+// The sample's five segments come first; the extended set (SegmentSet::Extended) adds three.
+enum SegmentIndex : std::size_t { Flex, Corp, Adv, Grp, Whl, Pkg, Gov, Crew, kSegments };
+constexpr std::size_t kSampleSegments = 5; // Flex … Whl
+constexpr std::array<const char *, kSegments> kSegCodes{"FLEX", "CORP", "ADV", "GRP",
+                                                        "WHL",  "PKG",  "GOV", "CREW"};
+constexpr std::array<const char *, kSegments> kSegNames{"Flexible retail",
+                                                        "Corporate negotiated",
+                                                        "Advance purchase",
+                                                        "Groups",
+                                                        "Wholesale and tour operators",
+                                                        "Leisure packages",
+                                                        "Government and public sector",
+                                                        "Crew contracts"};
 // Okabe & Ito (2008) colour-blind-safe palette; yellow is left out because it fades on white.
-constexpr std::array<const char *, kSegments> kSegColours{"#0072B2", "#E69F00", "#009E73",
-                                                          "#CC79A7", "#56B4E9"};
+// That leaves seven colours for eight segments: crew contracts get none (the workbench picks).
+constexpr std::array<const char *, kSegments> kSegColours{
+    "#0072B2", "#E69F00", "#009E73", "#CC79A7", "#56B4E9", "#D55E00", "#000000", ""};
+/// Yield rank (1 = highest-paying) in the extended set; the sample ranks in index order.
+constexpr std::array<int, kSegments> kExtendedRank{1, 3, 4, 5, 7, 2, 6, 8};
 
 enum ChannelIndex : std::size_t { Web, Voice, Ota, Gds, Tour, kChannels };
 constexpr std::array<const char *, kChannels> kChannelCodes{"WEB", "VOICE", "OTA", "GDS", "TOUR"};
@@ -86,6 +97,7 @@ struct IndividualModel {
   double rateFactor; // relative to the retail rate of the same rule
 };
 
+/// The sample's individual segments (all but groups).
 const std::array<IndividualModel, 4> &individualModels() {
   // clang-format off
   static const std::array<IndividualModel, 4> models{{
@@ -122,8 +134,43 @@ const std::array<IndividualModel, 4> &individualModels() {
   return models;
 }
 
+/// The extended set's three more: leisure packages sold early for peaks and weekends, public
+/// servants on a flat per-diem rate on weekdays, and airline and ferry crews on a year-round
+/// contract who book a day or two ahead.
+const std::array<IndividualModel, 3> &extraModels() {
+  // clang-format off
+  static const std::array<IndividualModel, 3> models{{
+      {.seg = Pkg, .arrivalsPerDay = 5.0,
+       .weekday = {0.6, 0.6, 0.7, 0.9, 1.9, 1.5, 0.8}, .season = {0.6, 1.0, 1.5},
+       .dispersion = 6.0, .minLead = 30.0, .shortLeadMean = 30.0, .longLeadMean = 120.0,
+       .longLeadShare = 0.55, .leisure = true,
+       .los = {0.10, 0.40, 0.30, 0.10, 0.05, 0.03, 0.02}, .rooms = {0.8, 0.18, 0.02},
+       .types = {0.40, 0.30, 0.20, 0.10}, .channels = {0.55, 0.10, 0.35, 0.0, 0.0},
+       .cancelShare = 0.18, .noShowShare = 0.01, .rateRule = RateRule::Dynamic, .rateFactor = 0.95},
+      {.seg = Gov, .arrivalsPerDay = 5.0,
+       .weekday = {1.7, 1.5, 1.2, 0.7, 0.15, 0.05, 0.9}, .season = {1.0, 1.1, 0.5},
+       .dispersion = 8.0, .minLead = 0.0, .shortLeadMean = 10.0, .longLeadMean = 35.0,
+       .longLeadShare = 0.25, .leisure = false,
+       .los = {0.40, 0.35, 0.15, 0.07, 0.03, 0.0, 0.0}, .rooms = {0.97, 0.03, 0.0},
+       .types = {0.95, 0.05, 0.0, 0.0}, .channels = {0.15, 0.35, 0.0, 0.50, 0.0},
+       .cancelShare = 0.12, .noShowShare = 0.02, .rateRule = RateRule::Negotiated, .rateFactor = 0.8},
+      {.seg = Crew, .arrivalsPerDay = 4.0,
+       .weekday = {1.0, 1.0, 1.0, 1.0, 1.0, 1.0, 1.0}, .season = {1.0, 1.0, 1.0},
+       .dispersion = 20.0, .minLead = 0.0, .shortLeadMean = 1.5, .longLeadMean = 10.0,
+       .longLeadShare = 0.15, .leisure = false,
+       .los = {0.60, 0.35, 0.05, 0.0, 0.0, 0.0, 0.0}, .rooms = {0.4, 0.35, 0.25},
+       .types = {1.0, 0.0, 0.0, 0.0}, .channels = {0.0, 0.8, 0.0, 0.2, 0.0},
+       .cancelShare = 0.08, .noShowShare = 0.005, .rateRule = RateRule::Negotiated, .rateFactor = 0.6},
+  }};
+  // clang-format on
+  return models;
+}
+
 const IndividualModel &modelOf(SegmentIndex seg) {
   for (const auto &m : individualModels())
+    if (m.seg == seg)
+      return m;
+  for (const auto &m : extraModels())
     if (m.seg == seg)
       return m;
   throw std::logic_error("no individual model for this segment");
@@ -186,8 +233,9 @@ std::vector<EventModel> eventsBetween(Date first, Date last) {
   std::vector<EventModel> all;
   for (int y = first.year() - 1; y <= last.year() + 1; ++y) {
     const Date festival = nthWeekday(y, 7, 4, 2); // second Thursday of July, four days
-    all.push_back(
-        {{festival, festival + 3, "Ostvale Harbour Festival"}, {2.2, 0.8, 2.0, 1.0, 1.5}, 1.25});
+    all.push_back({{festival, festival + 3, "Ostvale Harbour Festival"},
+                   {2.2, 0.8, 2.0, 1.0, 1.5, 2.0, 0.5, 1.0},
+                   1.25});
     // The organiser sets the trade fair's week each year; invented dates, Tuesday to Thursday.
     static constexpr std::array<std::array<int, 3>, 6> fairs{
         {{2023, 4, 18}, {2024, 4, 16}, {2025, 3, 25}, {2026, 4, 21}, {2027, 3, 16}, {2028, 4, 11}}};
@@ -195,15 +243,17 @@ std::vector<EventModel> eventsBetween(Date first, Date last) {
       if (f[0] == y) {
         const Date open =
             Date::fromYmd(y, static_cast<unsigned>(f[1]), static_cast<unsigned>(f[2]));
-        all.push_back(
-            {{open, open + 2, "Quillon Maritime Trade Fair"}, {2.0, 3.0, 1.3, 1.0, 0.5}, 1.3});
+        all.push_back({{open, open + 2, "Quillon Maritime Trade Fair"},
+                       {2.0, 3.0, 1.3, 1.0, 0.5, 0.8, 1.5, 1.0},
+                       1.3});
       }
     const Date regatta = nthWeekday(y, 9, 6, 1); // first Saturday of September
-    all.push_back(
-        {{regatta - 1, regatta + 1, "Ostvale Autumn Regatta"}, {1.8, 1.0, 1.5, 1.0, 1.2}, 1.15});
+    all.push_back({{regatta - 1, regatta + 1, "Ostvale Autumn Regatta"},
+                   {1.8, 1.0, 1.5, 1.0, 1.2, 1.6, 0.8, 1.0},
+                   1.15});
     all.push_back(
         {{Date::fromYmd(y, 12, 31), Date::fromYmd(y + 1, 1, 1), "New Year's Eve on the harbour"},
-         {2.5, 0.2, 2.0, 1.0, 1.5},
+         {2.5, 0.2, 2.0, 1.0, 1.5, 2.2, 0.1, 0.8},
          1.3});
   }
   std::vector<EventModel> kept;
@@ -271,7 +321,14 @@ class Simulation {
 public:
   explicit Simulation(const SimulatorConfig &c)
       : cfg_(c), rng_(c.seed), lastNight_(c.readingDate + c.futureDays),
-        events_(eventsBetween(c.historyStart, lastNight_)) {}
+        events_(eventsBetween(c.historyStart, lastNight_)) {
+    const bool extended = c.segments == SegmentSet::Extended;
+    for (std::size_t s = 0; s < (extended ? kSegments : kSampleSegments); ++s)
+      byRank_.push_back(static_cast<SegmentIndex>(s));
+    if (extended)
+      std::sort(byRank_.begin(), byRank_.end(),
+                [](SegmentIndex a, SegmentIndex b) { return kExtendedRank[a] < kExtendedRank[b]; });
+  }
 
   SampleProperty run();
 
@@ -295,6 +352,7 @@ private:
   DayWork &work(Date d) { return days_[static_cast<std::size_t>(d - firstDay_)]; }
 
   SimulatorConfig cfg_;
+  std::vector<SegmentIndex> byRank_; // the segments sold, highest-paying first
   Rng rng_;
   Date lastNight_;
   std::vector<EventModel> events_;
@@ -335,8 +393,10 @@ void Simulation::describeProperty(SampleProperty &out) const {
   const int superior = out.roomTypes[kSup].rooms;
   out.roomTypeChanges = {{kTypeCodes[kSup], closed, superior - kRefurbishedRooms},
                          {kTypeCodes[kSup], reopened, superior}};
-  for (std::size_t s = 0; s < kSegments; ++s)
-    out.segments.push_back({kSegCodes[s], kSegNames[s], static_cast<int>(s) + 1, kSegColours[s]});
+  for (std::size_t k = 0; k < byRank_.size(); ++k) {
+    const SegmentIndex s = byRank_[k];
+    out.segments.push_back({kSegCodes[s], kSegNames[s], static_cast<int>(k) + 1, kSegColours[s]});
+  }
   for (std::size_t c = 0; c < kChannels; ++c)
     out.channels.push_back({kChannelCodes[c], kChannelNames[c]});
   for (const auto &e : events_)
@@ -371,7 +431,7 @@ void Simulation::generateIndividual(const IndividualModel &m, Date arrival, doub
     mean *= event->demandLift[m.seg];
   // Corporate travel stops over Christmas and the new year.
   const unsigned mo = arrival.month(), d = arrival.day();
-  if (m.seg == Corp && ((mo == 12 && d >= 20) || (mo == 1 && d <= 4)))
+  if ((m.seg == Corp || m.seg == Gov) && ((mo == 12 && d >= 20) || (mo == 1 && d <= 4)))
     mean *= 0.3;
   const bool early = m.leisure && (event || seasonOf(arrival) == Season::Peak);
   const int n = rng_.negativeBinomial(mean, m.dispersion);
@@ -451,6 +511,10 @@ void Simulation::generateDemand() {
     for (const auto &m : individualModels())
       generateIndividual(m, a, shock);
     generateGroup(a);
+    // After the sample's draws, so the sample's own stay the same.
+    if (cfg_.segments == SegmentSet::Extended)
+      for (const auto &m : extraModels())
+        generateIndividual(m, a, shock);
   }
 }
 
@@ -699,7 +763,7 @@ void Simulation::finish(SampleProperty &out) {
     if (requests_[b.request].arrival <= t)
       add(sold[requests_[b.request].seg], requests_[b.request]);
   for (std::size_t i = 0; i < nights; ++i)
-    for (std::size_t s = 0; s < kSegments; ++s)
+    for (const SegmentIndex s : byRank_)
       out.trueDemand.push_back(
           {cfg_.historyStart + static_cast<int>(i), kSegCodes[s], want[s][i], sold[s][i]});
 
@@ -785,10 +849,12 @@ SimulatorConfig millionBookingConfig() {
   c.historyStart = Date::fromYmd(2021, 11, 1);
   c.readingDate = Date::fromYmd(2026, 10, 31);
   c.futureDays = 365;
-  // Tuned by hand to land near 1,000,000 rows (999,256 with the default seed) at about 84 %
-  // occupancy: a busy transit hotel whose individual guests stay one night in one room.
-  c.demandScale = 2.9;
+  // Eight segments. Tuned by hand to land near 1,000,000 rows (996,166 with the default seed) at
+  // about 81 % average occupancy to the reading date: a busy transit hotel whose individual
+  // guests stay one night in one room.
+  c.demandScale = 2.17;
   c.shortStayShare = 1.0;
+  c.segments = SegmentSet::Extended;
   return c;
 }
 

@@ -11,6 +11,12 @@
 
 namespace cb {
 
+/// Which segments the simulated property sells to.
+enum class SegmentSet {
+  Sample,   ///< the sample property's five: FLEX, CORP, ADV, GRP, WHL
+  Extended, ///< those five plus PKG (leisure packages), GOV (public sector), CREW (crew contracts)
+};
+
 struct SimulatorConfig {
   std::uint64_t seed = 20261201;
   int capacity = 150;
@@ -23,12 +29,16 @@ struct SimulatorConfig {
   /// request. Short stays give more rows per occupied room-night, so a synthetic property can
   /// reach a large row count at a believable occupancy. 0 = the sample's length-of-stay model.
   double shortStayShare = 0.0;
+  /// The sample's five segments, or eight. The three extra segments draw their requests after
+  /// the sample's, so choosing Sample leaves every draw (and file) of the sample unchanged.
+  SegmentSet segments = SegmentSet::Sample;
 };
 
 /// A synthetic property of about one million reservation rows for benchmarks (issue 3): 600
-/// rooms, five years of history to the reading date plus a year on the books, demand 2.9 times
-/// the sample's per room and every individual stay one night for one room (groups unchanged).
-/// Not a committed sample; about 4 s and 400 MB to simulate.
+/// rooms, eight segments (SegmentSet::Extended), five years of history to the reading date plus
+/// a year on the books, demand 2.17 times the sample's per room and every individual stay one
+/// night for one room (groups unchanged). Not a committed sample; about 4 s and 400 MB to
+/// simulate.
 SimulatorConfig millionBookingConfig();
 
 /// True demand of one night and segment, before capacity turned requests away.

@@ -13,6 +13,7 @@
 #include <map>
 #include <set>
 #include <string>
+#include <tuple>
 #include <vector>
 
 namespace {
@@ -321,4 +322,69 @@ TEST(Simulator, WrittenFilesMatchTheCommittedSample) {
     EXPECT_EQ(got.size(), want.size()) << f;
     EXPECT_TRUE(got == want) << f << " differs from the committed sample";
   }
+}
+
+TEST(Simulator, DefaultConfigSellsTheSamplesFiveSegments) {
+  std::vector<std::string> codes;
+  for (const auto &g : sample().segments)
+    codes.push_back(g.code);
+  EXPECT_EQ(codes, (std::vector<std::string>{"FLEX", "CORP", "ADV", "GRP", "WHL"}));
+  std::set<std::string> booked;
+  for (const auto &r : sample().reservations)
+    booked.insert(r.segment);
+  EXPECT_EQ(booked.size(), 5u);
+}
+
+TEST(Simulator, MillionBookingConfigSellsEightSegmentsEachWithItsShare) {
+  const cb::SimulatorConfig full = cb::millionBookingConfig();
+  EXPECT_EQ(full.segments, cb::SegmentSet::Extended);
+  EXPECT_EQ(full.capacity, 600);
+  // The same property on one year of history and a month on the books: the full five years
+  // (about 1,000,000 rows) take seconds and ~400 MB, too much for a unit test.
+  cb::SimulatorConfig c = full;
+  c.historyStart = cb::Date::fromYmd(2025, 11, 1);
+  c.futureDays = 30;
+  const cb::SampleProperty s = cb::simulateProperty(c);
+
+  // The segments in yield-rank order, highest-paying first.
+  std::vector<std::string> codes;
+  for (std::size_t k = 0; k < s.segments.size(); ++k) {
+    codes.push_back(s.segments[k].code);
+    EXPECT_EQ(s.segments[k].yieldRank, static_cast<int>(k) + 1);
+  }
+  EXPECT_EQ(codes,
+            (std::vector<std::string>{"FLEX", "PKG", "CORP", "ADV", "GRP", "GOV", "WHL", "CREW"}));
+  EXPECT_EQ(s.trueDemand.size(),
+            static_cast<std::size_t>(s.readingDate - c.historyStart + 1) * codes.size());
+
+  // Every segment books a non-trivial share of the rows (the smallest, groups, about 2 %).
+  std::map<std::string, std::size_t> rows;
+  for (const auto &r : s.reservations)
+    ++rows[r.segment];
+  ASSERT_EQ(rows.size(), 8u);
+  for (const auto &[code, n] : rows) {
+    const double share = static_cast<double>(n) / static_cast<double>(s.reservations.size());
+    std::printf("%-4s %6zu rows (%.1f %%)\n", code.c_str(), n, 100.0 * share);
+    EXPECT_GE(share, 0.01) << code;
+  }
+
+  // Distinct behaviour by design: packages are sold at least 30 days ahead, crews mostly a day
+  // or two ahead, and the negotiated segments pay one rate per room type and year.
+  std::vector<int> crewLeads;
+  std::map<std::tuple<std::string, std::string, int>, std::set<double>> flatRates;
+  for (const auto &r : s.reservations) {
+    if (r.segment == "PKG") {
+      EXPECT_GE(r.arrival - r.bookedOn, 30) << r.id;
+    }
+    if (r.segment == "CREW")
+      crewLeads.push_back(r.arrival - r.bookedOn);
+    if (r.segment == "CORP" || r.segment == "GOV" || r.segment == "CREW")
+      flatRates[{r.segment, r.roomType, r.arrival.year()}].insert(r.rate);
+  }
+  ASSERT_FALSE(crewLeads.empty());
+  std::nth_element(crewLeads.begin(), crewLeads.begin() + crewLeads.size() / 2, crewLeads.end());
+  EXPECT_LE(crewLeads[crewLeads.size() / 2], 2);
+  for (const auto &[key, rates] : flatRates)
+    EXPECT_EQ(rates.size(), 1u) << std::get<0>(key) << " " << std::get<1>(key) << " "
+                                << std::get<2>(key);
 }
