@@ -16,6 +16,7 @@
 #include <cstdio>
 #include <cstring>
 #include <functional>
+#include <limits>
 #include <streambuf>
 #include <string_view>
 #include <vector>
@@ -365,11 +366,15 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   tx.emplace(store);
   log.id = store.beginImport(log);
   // The rows written, kept to bring the store's snapshot up to date after the commit
-  // (core/reservationsnapshot.h) without reading a million rows back; beyond a quarter of the
-  // store (or 100,000 rows) they are not kept, and the next read rebuilds the snapshot instead.
+  // (core/reservationsnapshot.h) without reading a million rows back. Into an empty store they
+  // are all kept (they are the whole snapshot: 232 MB at a million rows); else beyond a quarter
+  // of the store (or 100,000 rows) they are not, and the next read rebuilds the snapshot.
   const std::uint64_t stampBefore = store.reservationStamp();
+  const std::int64_t storedBefore = store.reservationCount();
   const std::size_t keepAtMost =
-      static_cast<std::size_t>(std::max<std::int64_t>(100000, store.reservationCount() / 4));
+      storedBefore == 0
+          ? std::numeric_limits<std::size_t>::max()
+          : static_cast<std::size_t>(std::max<std::int64_t>(100000, storedBefore / 4));
   std::vector<Reservation> written;
   bool writtenComplete = true;
   const std::string idName = profile->sourceName("reservation_id");
@@ -500,9 +505,16 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   const std::uint64_t stampAfter = store.reservationStamp(); // this import's own stamp
   tx->commit();
   rep.written = true;
-  if (stampAfter != stampBefore && writtenComplete)
-    updateReservationSnapshot(snapshotPathFor(store.path()), stampBefore, stampAfter,
-                              std::move(written));
+  if (stampAfter != stampBefore && writtenComplete) {
+    const auto snapshot = snapshotPathFor(store.path());
+    if (storedBefore == 0) {
+      std::sort(written.begin(), written.end(),
+                [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
+      writeReservationSnapshot(snapshot, stampAfter, written);
+    } else {
+      updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written));
+    }
+  }
   return rep;
 }
 

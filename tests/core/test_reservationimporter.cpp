@@ -381,17 +381,24 @@ TEST(ReservationImporter, ReimportUpdatesTheSnapshotWithoutReadingTheTable) {
   const auto v1 = tmp / "extract-1.csv";
   const auto v2 = tmp / "extract-2.csv";
   cbtest::writeFile(
-      v1, kHeader + "E1,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
-                    "E3,booked,2026-01-03,,2026-03-05,2026-03-06,2,TWN,Group,Agency,70,,G1\n"
-                    "E5,booked,2026-01-04,,2026-03-05,2026-03-06,1,TWN,Group,Agency,70,,G1\n");
+      v1, kHeader + "E5,booked,2026-01-04,,2026-03-05,2026-03-06,1,TWN,Group,Agency,70,,G1\n"
+                    "E1,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
+                    "E3,booked,2026-01-03,,2026-03-05,2026-03-06,2,TWN,Group,Agency,70,,G1\n");
   cbtest::writeFile(
       v2, kHeader +
               "E1,cancelled,2026-01-01,2026-02-10,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
               "E4,booked,2026-02-11,,2026-03-07,2026-03-09,1,DBL,Leisure,Web,88,,\n"
               "E0,booked,2026-02-12,,2026-03-07,2026-03-08,1,,Leisure,,88.5,EUR,\n");
   ASSERT_TRUE(cb::importReservations(*store, v1).written);
-  EXPECT_FALSE(fs::exists(snapshot)); // nothing to update yet: the first read writes it
-  const auto before = store->reservations();
+  // Into an empty store the import writes the whole snapshot (the rows in id order).
+  const auto first = cb::readReservationSnapshot(snapshot, store->reservationStamp());
+  ASSERT_TRUE(first.has_value());
+  ASSERT_EQ(first->size(), 3U);
+  EXPECT_EQ(first->front().id, "E1");
+  EXPECT_EQ(first->back().id, "E5");
+  fs::remove(snapshot);
+  const auto before = store->reservations(); // from the table, writes the snapshot again
+  EXPECT_EQ(before, *first);
   ASSERT_TRUE(fs::exists(snapshot));
 
   ASSERT_TRUE(cb::importReservations(*store, v2).written);
