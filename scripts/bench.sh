@@ -4,7 +4,8 @@
 # Usage: scripts/bench.sh [extra benchmark flags, e.g. --benchmark_filter=Cube1M]
 # Debian builds libbenchmark in debug mode, hence its warning; our code is Release.
 # One benchmark runs at a time on one core; the synthetic property is simulated once at start
-# (a few seconds, ~400 MB) and never written to disk.
+# (a few seconds, ~400 MB); the 1M store for the load benchmarks is written to a temporary folder
+# and removed at exit.
 set -euo pipefail
 root="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 build="$root/build-bench"

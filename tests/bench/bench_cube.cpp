@@ -1,8 +1,13 @@
 // Timings of the curve cube build (total and by segment) on the sample property, the open city
-// dataset and a synthetic property of about 1,000,000 reservations, and of loading a store
-// into memory. Each data set is made once, before its first benchmark runs.
+// dataset and a synthetic property of about 1,000,000 reservations, of parsing that property's
+// CSV, and of loading a store into memory (the sample; the 1M one from its snapshot and from the
+// table). Each data set is made once, before its first benchmark runs.
+#include "core/csvreader.h"
 #include "core/curvecube.h"
+#include "core/mappingprofile.h"
+#include "core/nativeformat.h"
 #include "core/reservationimporter.h"
+#include "core/reservationsnapshot.h"
 #include "core/samplestore.h"
 #include "core/simulator.h"
 #include "core/store.h"
@@ -14,8 +19,10 @@
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
+#include <fstream>
 #include <memory>
 #include <random>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -173,7 +180,89 @@ void BM_LoadSampleStore(benchmark::State &state) {
 
 } // namespace
 
+/// Parsing the 1M property's native CSV (80 MB, in memory) into reservations: the reader, the
+/// mapping profile and the validation of each row, as an import does before the store.
+void BM_ParseCsv1M(benchmark::State &state) {
+  static const std::string csv = [] {
+    std::ostringstream os;
+    cb::writeNativeCsv(os, millionBookings().reservations);
+    return os.str();
+  }();
+  std::size_t rows = 0;
+  for (auto _ : state) {
+    std::istringstream in(csv);
+    cb::CsvReader reader(in, "reservations.csv");
+    cb::Findings findings;
+    auto profile = cb::MappingProfile::load("native", findings);
+    cb::CsvRecord rec;
+    if (!profile || !reader.next(rec) || !profile->bind(rec, "reservations.csv", findings)) {
+      state.SkipWithError("the native profile did not bind");
+      return;
+    }
+    cb::Reservation r;
+    rows = 0;
+    while (reader.next(rec))
+      if (profile->map(rec, r).empty() && cb::validateReservation(r).empty())
+        ++rows;
+    benchmark::DoNotOptimize(rows);
+  }
+  state.counters["reservations"] = static_cast<double>(rows);
+  state.counters["MB"] = static_cast<double>(csv.size()) / 1e6;
+}
+
+/// A store of the 1M property (imported once), for the two ways of loading it.
+const fs::path &millionStore() {
+  static const fs::path path = [] {
+    const fs::path dir = scratch().path() / "1m";
+    fs::create_directories(dir);
+    {
+      std::ofstream out(dir / "reservations.csv", std::ios::binary);
+      cb::writeNativeCsv(out, millionBookings().reservations);
+    }
+    cb::Property p;
+    p.name = "Bench 1M";
+    p.capacity = cb::millionBookingConfig().capacity;
+    auto store = cb::Store::create(dir / "1m.curvebench", p);
+    if (!cb::importReservations(*store, dir / "reservations.csv").written)
+      std::fprintf(stderr, "import of the 1M property failed\n");
+    return dir / "1m.curvebench";
+  }();
+  return path;
+}
+
+/// Loading the 1M store into memory from its snapshot (core/reservationsnapshot.h), as every
+/// command and the workbench do once the snapshot is current.
+void BM_LoadStore1MSnapshot(benchmark::State &state) {
+  auto store = cb::Store::open(millionStore());
+  store->reservations(); // makes sure the snapshot is current
+  std::size_t rows = 0;
+  for (auto _ : state) {
+    auto rs = store->reservations();
+    rows = rs.size();
+    benchmark::DoNotOptimize(rs);
+  }
+  state.counters["reservations"] = static_cast<double>(rows);
+}
+
+/// The same from the SQLite table (no snapshot; the store opened read-only writes none).
+void BM_LoadStore1MTable(benchmark::State &state) {
+  const fs::path snapshot = cb::snapshotPathFor(millionStore());
+  std::error_code ec;
+  fs::remove(snapshot, ec);
+  auto store = cb::Store::open(millionStore(), cb::Store::Access::ReadOnly);
+  std::size_t rows = 0;
+  for (auto _ : state) {
+    auto rs = store->reservations();
+    rows = rs.size();
+    benchmark::DoNotOptimize(rs);
+  }
+  state.counters["reservations"] = static_cast<double>(rows);
+}
+
 BENCHMARK(BM_LoadSampleStore)->Unit(benchmark::kMillisecond);
+BENCHMARK(BM_ParseCsv1M)->Unit(benchmark::kMillisecond)->Iterations(3);
+BENCHMARK(BM_LoadStore1MSnapshot)->Unit(benchmark::kMillisecond)->Iterations(5);
+BENCHMARK(BM_LoadStore1MTable)->Unit(benchmark::kMillisecond)->Iterations(3);
 BENCHMARK(BM_CubeSampleTotal)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_CubeSampleBySegment)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_CubeOpenCityTotal)->Unit(benchmark::kMillisecond);
