@@ -196,6 +196,35 @@ bool CsvReader::next(CsvRecord &out) {
     beginField();
     bool endOfRecord = false;
     while (!endOfRecord) {
+      // The common case taken a run at a time: plain ASCII inside an unquoted field, with no
+      // UTF-8 sequence open. Each byte counts exactly as get() would count it (consumed, field
+      // byte, column, record length), so findings point at the same places; anything else
+      // (quotes, delimiters, line ends, NUL, non-ASCII, a refill) goes through get() below.
+      // Measured with perf: appending byte by byte was a fifth of re-importing 1M rows.
+      if ((st == State::Start || st == State::Unquoted) && utf8Need_ == 0 && pos_ < end_ &&
+          bytes < opt_.maxRecordBytes) {
+        const std::size_t limit = std::min(end_, pos_ + (opt_.maxRecordBytes - bytes));
+        std::size_t run = pos_;
+        while (run < limit) {
+          const auto b = static_cast<unsigned char>(buf_[run]);
+          if (b == 0 || b >= 0x80 || b == '"' || b == '\n' || b == '\r' ||
+              b == static_cast<unsigned char>(opt_.delimiter))
+            break;
+          ++run;
+        }
+        if (run > pos_) {
+          const std::size_t k = run - pos_;
+          out.fields.back().text.append(buf_.data() + pos_, k);
+          pos_ = run;
+          consumed_ += static_cast<std::int64_t>(k);
+          fieldByte_ += static_cast<int>(k);
+          col_ += static_cast<int>(k);
+          bytes += k;
+          any = true;
+          st = State::Unquoted;
+          continue;
+        }
+      }
       int c = get();
       if (c == kFailed)
         return false;
