@@ -4,6 +4,7 @@
 
 #include "core/curvecube.h"
 #include "core/holidaymap.h"
+#include "core/nightindex.h"
 #include "core/reservation.h"
 
 #include <optional>
@@ -57,6 +58,17 @@ public:
   /// probabilities outside [0, 1].
   static ComparableNights build(const std::vector<Reservation> &reservations, Date night, Date asOf,
                                 const Property &property, const HolidayMap &holidays,
+                                const std::vector<EventNote> &events,
+                                const ComparableOptions &options, SeriesBy by = SeriesBy::Total,
+                                const std::string &series = "ALL");
+
+  /// The same result as build(), read from the reservations covering each reference night (a
+  /// NightIndex over `reservations`) instead of a cube of every reservation: a few thousand rows
+  /// instead of a million, for a screen that moves from night to night. `newest` is
+  /// newestActivity(reservations) (a session knows it). Throws as build().
+  static ComparableNights build(const std::vector<Reservation> &reservations,
+                                const NightIndex &index, std::optional<Date> newest, Date night,
+                                Date asOf, const Property &property, const HolidayMap &holidays,
                                 const std::vector<EventNote> &events,
                                 const ComparableOptions &options, SeriesBy by = SeriesBy::Total,
                                 const std::string &series = "ALL");

@@ -5,6 +5,7 @@
 #include "core/reservation.h"
 
 #include <cstdint>
+#include <optional>
 #include <span>
 #include <vector>
 
@@ -20,6 +21,10 @@ public:
   /// Positions in the indexed vector, in its order, of the reservations covering `night`; empty
   /// for a night outside the data.
   std::span<const std::uint32_t> covering(Date night) const;
+  /// The first night any reservation covers (the earliest arrival of a stay); nullopt when none.
+  std::optional<Date> firstNight() const {
+    return start_.empty() ? std::nullopt : std::optional<Date>(first_);
+  }
   /// The covering reservations themselves, copied in the vector's order (for functions that
   /// take a vector: the same result as passing them all, for this night).
   std::vector<Reservation> reservationsCovering(const std::vector<Reservation> &reservations,

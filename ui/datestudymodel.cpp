@@ -134,8 +134,10 @@ cb::ComparableNights DateStudyModel::comparable() const {
   cb::ComparableOptions o;
   o.maxDba = maxLead();
   const cb::HolidayMap holidays = cb::HolidayMap::fromEvents(s_.events());
+  // From the night index: the reference nights' own reservations, not a cube of every one.
   return cb::ComparableNights::build(
-      s_.reservations(), night_, s_.readingDate(), s_.property(), holidays, s_.events(), o,
+      s_.reservations(), s_.nightIndex(), s_.newestActivity(), night_, s_.readingDate(),
+      s_.property(), holidays, s_.events(), o,
       segment_.empty() ? cb::SeriesBy::Total : cb::SeriesBy::Segment, series());
 }
 

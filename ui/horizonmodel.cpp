@@ -2,7 +2,6 @@
 
 #include "ui/csvexport.h"
 
-#include "core/curvecube.h"
 #include "core/forecastrun.h"
 #include "core/holidaymap.h"
 #include "core/outlook.h"
@@ -16,6 +15,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <stdexcept>
 
 namespace cbui {
@@ -71,34 +71,39 @@ HorizonData computeHorizon(const WorkbenchSession &session, int days, const std:
   out.segment = qs(segment);
   out.currency = qs(property.currency);
 
-  // OTB, pickup and STLY from one cube (by segment when one is chosen): nights from the earliest
-  // STLY night to the last night, leads to days + 7 so the OTB a week earlier is known.
+  // OTB, pickup and STLY of each night from its own reservations (the session's night index; at
+  // a large property a cube of every reservation took longer than the rest of the figures):
+  // OTB(s, t) at t = the reading date, the day before and a week before, and the STLY night's
+  // OTB at the same lead — the cells of a curve cube as of the reading date.
   const cb::HolidayMap holidays = cb::HolidayMap::fromEvents(session.events());
-  cb::CubeOptions co;
-  co.firstNight = o.asOf + 1;
-  co.lastNight = o.asOf + days;
-  for (cb::Date s = o.asOf + 1; s <= co.lastNight; ++s)
-    co.firstNight = std::min(co.firstNight, holidays.referenceNight(property, s));
-  co.maxDba = days + 7;
-  co.by = segment.empty() ? cb::SeriesBy::Total : cb::SeriesBy::Segment;
-  co.asOf = o.asOf;
-  const cb::CurveCube cube = cb::CurveCube::build(session.reservations(), co);
-  const std::optional<std::size_t> si =
-      segment.empty() ? std::optional<std::size_t>(0) : cube.seriesIndex(segment);
-  std::optional<cb::Date> dataStart;
-  for (const auto &r : session.reservations())
-    if (!r.isDayUse() && (!dataStart || r.arrival < *dataStart))
-      dataStart = r.arrival;
+  const std::vector<cb::Reservation> &reservations = session.reservations();
+  auto otbRooms = [&](cb::Date night, cb::Date reading) {
+    int rooms = 0;
+    for (std::uint32_t k : session.nightIndex().covering(night)) {
+      const cb::Reservation &r = reservations[k];
+      if (r.bookedOn <= o.asOf && (segment.empty() || r.segment == segment) &&
+          r.onBooks(night, reading))
+        rooms += r.rooms;
+    }
+    return rooms;
+  };
+  // A segment with no booking up to the reading date has no figures (a cube has no such series).
+  const bool known =
+      segment.empty() || std::any_of(reservations.begin(), reservations.end(), [&](const auto &r) {
+        return r.segment == segment && r.bookedOn <= o.asOf;
+      });
+  const std::optional<cb::Date> dataStart = session.nightIndex().firstNight();
 
   auto fillOtb = [&](HorizonRow &row, cb::Date night, int lead) {
-    if (!si) // a segment with no booking up to the reading date
+    if (!known)
       return;
-    row.otb = cube.otbRooms(*si, night, lead);
-    row.pickup1 = row.otb - cube.otbRooms(*si, night, lead + 1);
-    row.pickup7 = row.otb - cube.otbRooms(*si, night, lead + 7);
+    const cb::Date reading = night - lead;
+    row.otb = otbRooms(night, reading);
+    row.pickup1 = row.otb - otbRooms(night, reading - 1);
+    row.pickup7 = row.otb - otbRooms(night, reading - 7);
     const cb::Date stly = holidays.referenceNight(property, night);
     if (dataStart && stly >= *dataStart)
-      row.stlyOtb = cube.otbRooms(*si, stly, lead);
+      row.stlyOtb = otbRooms(stly, stly - lead);
   };
 
   if (segment.empty()) {

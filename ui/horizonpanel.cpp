@@ -65,6 +65,7 @@ HorizonPanel::HorizonPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   d_->debounce = new QTimer(this);
   d_->debounce->setSingleShot(true);
   d_->debounce->setInterval(250);
+  d_->debounce->setObjectName(QStringLiteral("horizonInputPause"));
 
   d_->lengthCombo->setObjectName(QStringLiteral("horizonLength"));
   d_->daysSpin->setObjectName(QStringLiteral("horizonDays"));

@@ -41,11 +41,15 @@ public:
   const cb::StoreSummary &summary() const { return summary_; }
   const std::vector<cb::Segment> &segments() const { return segments_; }
   const std::filesystem::path &path() const { return path_; }
-  const std::vector<cb::Reservation> &reservations() const { return reservations_; }
+  /// Every reservation of the store, loaded once. Copies of the session share them (and the night
+  /// index), so a background job's copy costs nothing at a million reservations.
+  const std::vector<cb::Reservation> &reservations() const { return *reservations_; }
+  /// Which reservations cover each stay night (positions in reservations()).
+  const cb::NightIndex &nightIndex() const { return *nightIndex_; }
   /// The reservations covering one stay night, in store order: a night's few hundred instead of
   /// a scan of them all (a million at a large property).
   std::vector<cb::Reservation> reservationsCovering(cb::Date night) const {
-    return nightIndex_.reservationsCovering(reservations_, night);
+    return nightIndex_->reservationsCovering(*reservations_, night);
   }
   /// Sales closures and denials/regrets: what unconstraining reads (core/unconstrain.h).
   const cb::CensorSources &censorSources() const { return sources_; }
@@ -68,8 +72,8 @@ private:
   cb::Property property_;
   cb::StoreSummary summary_;
   std::vector<cb::Segment> segments_;
-  std::vector<cb::Reservation> reservations_;
-  cb::NightIndex nightIndex_; ///< over reservations_, built once when the store is read
+  std::shared_ptr<const std::vector<cb::Reservation>> reservations_;
+  std::shared_ptr<const cb::NightIndex> nightIndex_; ///< over reservations_, built once when read
   cb::CensorSources sources_;
   std::vector<cb::EventNote> events_;
   cb::Date readingDate_, newest_, firstBooked_;

@@ -1,6 +1,7 @@
 // Comparable nights: the selection rule (core/comparablenights.h) by hand, a band worked out by
 // hand (quantiles checked with R 4.2.2, tests/reference/quantile_type7.R, samples band_*), and the
-// band against the definition-level curve on the sample property.
+// band against the definition-level curve on the sample property, and the night-index path against
+// the full cube.
 #include "core/comparablenights.h"
 
 #include "core/bookingcurve.h"
@@ -231,4 +232,68 @@ TEST(ComparableNights, NothingDatedAfterTheReadingDateChangesIt) {
       ASSERT_EQ(a.medianPct, b.medianPct);
     }
   }
+}
+
+// The night-index path (what Date Study uses at each night switch) gives exactly what a cube of
+// every reservation gives: on the sample property, three reading dates, nights before and after
+// each, the hotel, every segment, a segment no row has, and the split named "ALL"; with and
+// without the events left out, at leads up to 400 (beyond the data's first bookings).
+TEST(ComparableNights, NightIndexPathEqualsTheFullCube) {
+  auto sample = cb::simulateProperty();
+  const auto &rs = sample.reservations;
+  const cb::NightIndex index(rs);
+  const auto newest = cb::newestActivity(rs);
+  const auto map = HolidayMap::fromEvents(sample.events);
+  auto same = [](const std::optional<double> &a, const std::optional<double> &b) {
+    return a.has_value() == b.has_value() && (!a || *a == *b); // exact: the same arithmetic
+  };
+  int compared = 0;
+  for (Date asOf : {sample.readingDate, sample.readingDate - 200, sample.readingDate - 700}) {
+    for (int offset : {-400, -30, 1, 17, 45, 200}) {
+      const Date night = asOf + offset;
+      for (const std::string seg : {"", "FLEX", "CORP", "ADV", "GRP", "WHL", "NOSUCH", "ALL"}) {
+        for (bool excludeEvents : {false, true}) {
+          ComparableOptions o;
+          o.maxDba = offset > 0 ? std::max(90, offset + 30) : 90;
+          o.excludeEvents = excludeEvents;
+          const auto by = seg.empty() ? cb::SeriesBy::Total : cb::SeriesBy::Segment;
+          const std::string series = seg.empty() ? "ALL" : seg;
+          auto full = ComparableNights::build(rs, night, asOf, sample.property, map, sample.events,
+                                              o, by, series);
+          auto fast = ComparableNights::build(rs, index, newest, night, asOf, sample.property, map,
+                                              sample.events, o, by, series);
+          ASSERT_EQ(full.night(), fast.night());
+          ASSERT_EQ(full.references(), fast.references());
+          ASSERT_EQ(full.band().size(), fast.band().size());
+          for (std::size_t k = 0; k < full.band().size(); ++k) {
+            const auto &a = full.band()[k];
+            const auto &b = fast.band()[k];
+            ASSERT_EQ(a.dba, b.dba);
+            ASSERT_EQ(a.count, b.count) << night.toIso() << " " << seg << " lead " << k;
+            ASSERT_EQ(a.countPct, b.countPct) << night.toIso() << " " << seg << " lead " << k;
+            ASSERT_TRUE(same(a.low, b.low) && same(a.median, b.median) && same(a.high, b.high))
+                << night.toIso() << " " << seg << " lead " << k;
+            ASSERT_TRUE(same(a.lowPct, b.lowPct) && same(a.medianPct, b.medianPct) &&
+                        same(a.highPct, b.highPct))
+                << night.toIso() << " " << seg << " lead " << k;
+          }
+          ++compared;
+        }
+      }
+    }
+  }
+  EXPECT_EQ(compared, 3 * 6 * 8 * 2);
+  // The band is not empty where it matters: the hotel's band a month out has rooms in it.
+  ComparableOptions o;
+  auto hotel = ComparableNights::build(rs, index, newest, sample.readingDate + 30,
+                                       sample.readingDate, sample.property, map, sample.events, o);
+  ASSERT_GE(hotel.references().size(), 8u);
+  EXPECT_GT(*hotel.band()[0].median, 0.0);
+  // The errors of build(): a reading date after the newest activity, and no data.
+  EXPECT_THROW(ComparableNights::build(rs, index, newest, *newest + 10, *newest + 1,
+                                       sample.property, map, sample.events, o),
+               cb::AsOfError);
+  EXPECT_THROW(ComparableNights::build({}, cb::NightIndex(), std::nullopt, *newest, *newest,
+                                       sample.property, map, sample.events, o),
+               cb::AsOfError);
 }
