@@ -22,7 +22,7 @@ namespace cbcli {
 namespace {
 
 struct MethodFlags {
-  int refs = 8, mavgK = 4, paceWindow = 7;
+  int refs = 8, mavgK = 4, paceWindow = 7, mlpRetrainDays = 1;
   bool refsSeasonal = false, naiveHistory = false;
   std::string criterion = "mae";
 
@@ -32,6 +32,7 @@ struct MethodFlags {
     o.seasonalReferences = refsSeasonal;
     o.movingAverageK = mavgK;
     o.paceWindow = paceWindow;
+    o.mlpRetrainDays = mlpRetrainDays;
     return o;
   }
 };
@@ -73,6 +74,11 @@ void addMethodFlags(CLI::App *cmd, MethodFlags &f) {
       ->check(CLI::Range(1, 104));
   cmd->add_option("--pace-window", f.paceWindow, "pace-extrap: window w in days (7 or 15)")
       ->check(CLI::IsMember({7, 15}));
+  cmd->add_option("--mlp-retrain-days", f.mlpRetrainDays,
+                  "mlp: in a backtest (and auto's evidence), train the nets once per block of this "
+                  "many days and reuse them for the block's later reading dates (1 = at every "
+                  "reading date, the default; 7 is about 7 times faster)")
+      ->check(CLI::Range(1, 28));
   cmd->add_option("--criterion", f.criterion,
                   "auto: error that picks the method: mae (default), rmse, wape, abs-bias")
       ->check(CLI::IsMember({"mae", "rmse", "wape", "abs-bias"}));

@@ -50,11 +50,17 @@ void forecastAt(const CurveCube &cube, const Property &property,
       histories.push_back(
           unconstrainedFinals(cube, si, t, property, sources, *options.unconstrain));
   }
+  // One context per series, shared by every method: its table of finals is built once.
+  std::vector<ForecastContext> contexts;
+  contexts.reserve(cube.series().size());
+  for (std::size_t si = 0; si < cube.series().size(); ++si) {
+    contexts.emplace_back(cube, si, t, property);
+    if (!histories.empty())
+      contexts.back().useHistory(&histories[si]);
+  }
   for (std::size_t mi = 0; mi < methods.size(); ++mi) {
     for (std::size_t si = 0; si < cube.series().size(); ++si) {
-      ForecastContext ctx(cube, si, t, property);
-      if (!histories.empty())
-        ctx.useHistory(&histories[si]);
+      const ForecastContext &ctx = contexts[si];
       methods[mi]->fit(ctx);
       for (int h : leads) {
         const Date s = t + h;
@@ -142,6 +148,15 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
   std::vector<Date> dates;
   for (Date t = start; t <= options.to && t < cube.asOf(); t += options.step)
     dates.push_back(t);
+  // Blocks of reading dates, each run in order by one thread with fresh method instances: a
+  // method may keep what it fitted for the rest of its block (MethodOptions::mlpRetrainDays),
+  // and blocks fixed by the dates alone keep the result independent of the threads.
+  const int blockDays = std::max(1, options.methodOptions.mlpRetrainDays);
+  std::vector<std::size_t> blockStart;
+  for (std::size_t i = 0; i < dates.size(); ++i)
+    if (i == 0 || (dates[i] - start) / blockDays != (dates[i - 1] - start) / blockDays)
+      blockStart.push_back(i);
+  blockStart.push_back(dates.size());
 
   // Work is shared out by reading date; each date's rows go to their own slot, so the result
   // does not depend on which thread did what.
@@ -154,15 +169,18 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
   auto worker = [&] {
     try {
       std::vector<std::unique_ptr<ForecastMethod>> methods;
-      for (const std::string &name : base)
-        methods.push_back(options.factory(name, options.methodOptions));
       for (;;) {
-        const std::size_t i = next++;
-        if (i >= dates.size() || cancel)
+        const std::size_t b = next++;
+        if (b + 1 >= blockStart.size() || cancel)
           break;
-        forecastAt(cube, property, methods, leads, dates[i], options, perDate[i]);
-        ++done;
-        wake.notify_one();
+        methods.clear();
+        for (const std::string &name : base)
+          methods.push_back(options.factory(name, options.methodOptions));
+        for (std::size_t i = blockStart[b]; i < blockStart[b + 1] && !cancel; ++i) {
+          forecastAt(cube, property, methods, leads, dates[i], options, perDate[i]);
+          ++done;
+          wake.notify_one();
+        }
       }
     } catch (...) {
       std::lock_guard lock(mutex);
@@ -173,7 +191,8 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
     }
   };
   unsigned threads = options.threads ? options.threads : std::thread::hardware_concurrency();
-  threads = std::clamp(threads, 1u, static_cast<unsigned>(std::max<std::size_t>(dates.size(), 1)));
+  threads = std::clamp(threads, 1u,
+                       static_cast<unsigned>(std::max<std::size_t>(blockStart.size() - 1, 1)));
   std::vector<std::thread> pool;
   for (unsigned k = 0; k < threads; ++k)
     pool.emplace_back(worker);

@@ -8,6 +8,7 @@
 #include <map>
 #include <mutex>
 #include <numbers>
+#include <tuple>
 
 namespace cb {
 
@@ -239,7 +240,10 @@ std::optional<Eigen::RowVectorXd> mlpInputs(const ForecastContext &ctx, Date r, 
 
 class MlpMethod final : public ForecastMethod {
 public:
-  explicit MlpMethod(std::uint64_t seed) : seed_(seed) {}
+  MlpMethod(std::uint64_t seed, int retrainDays) : seed_(seed), retrainDays_(retrainDays) {
+    if (retrainDays < 1)
+      throw MethodError("mlp: the retraining interval must be at least 1 day");
+  }
   std::string name() const override { return "mlp"; }
   std::string description() const override {
     return "A small neural network, one per lead, trained on the last year of arrived nights to "
@@ -251,9 +255,14 @@ public:
            "OTB(s − 364, t − 364)); g = 8 tanh units, inputs and target standardised, fitted "
            "by Adam on Final(r) − OTB(r, r − h) over nights r ≤ t";
   }
-  void fit(const ForecastContext &) override {
+  void fit(const ForecastContext &ctx) override {
     std::lock_guard lock(mutex_);
+    // MethodOptions::mlpRetrainDays: the nets of this instance's first fit serve the next k − 1
+    // days too (the backtest gives each block of k days a fresh instance).
+    if (trainedAt_ && ctx.asOf() >= *trainedAt_ && ctx.asOf() - *trainedAt_ < retrainDays_)
+      return;
     nets_.clear();
+    trainedAt_ = ctx.asOf();
   }
   std::optional<double> forecast(const ForecastContext &ctx, Date night) const override {
     if (night <= ctx.asOf())
@@ -276,7 +285,7 @@ public:
 private:
   const Mlp *net(const ForecastContext &ctx, int h, bool stly) const {
     std::lock_guard lock(mutex_);
-    auto [it, fresh] = nets_.try_emplace({h, stly});
+    auto [it, fresh] = nets_.try_emplace({ctx.series(), h, stly});
     if (!fresh)
       return it->second.get();
     std::vector<Eigen::RowVectorXd> rows;
@@ -304,8 +313,10 @@ private:
   }
 
   std::uint64_t seed_;
+  int retrainDays_;
+  std::optional<Date> trainedAt_;
   mutable std::mutex mutex_;
-  mutable std::map<std::pair<int, bool>, std::unique_ptr<Mlp>> nets_;
+  mutable std::map<std::tuple<std::size_t, int, bool>, std::unique_ptr<Mlp>> nets_;
 };
 
 } // namespace
@@ -365,7 +376,7 @@ std::unique_ptr<ForecastMethod> makeCombinedMethod(std::string_view name,
   if (name == "regress")
     return std::make_unique<RegressMethod>();
   if (name == "mlp")
-    return std::make_unique<MlpMethod>(options.seed);
+    return std::make_unique<MlpMethod>(options.seed, options.mlpRetrainDays);
   if (name == "blend")
     return makeBlendMethod(
         "blend", [options] { return makeMethod("mavg", options); },

@@ -68,6 +68,14 @@ struct MethodOptions {
   int paceWindow = 7;              ///< pace-extrap: w days (7 or 15)
   int maxArOrder = 14;             ///< ar: largest p tried (order chosen by AIC)
   std::uint64_t seed = 20261201;   ///< mlp: fixed seed
+  /// mlp: days one set of nets serves in a backtest. 1 (the default) trains the nets again at
+  /// every reading date. With k > 1 the backtest cuts its reading dates into blocks of k days
+  /// (counted from its first reading date, warm-up included) and a net is trained once per block,
+  /// at the block's first reading date that asks for it, on the data as of that date; the
+  /// block's later dates reuse it with their own inputs (OTB and pickup as of their own reading
+  /// date), so nothing after a date enters its forecast. About k times fewer trainings, at the
+  /// cost of nets up to k − 1 days old. A single forecast (not a backtest) trains at its date.
+  int mlpRetrainDays = 1;
 };
 
 class ForecastMethod {

@@ -33,6 +33,7 @@ Json optionsJson(const ForecastRequest &r) {
               {"pace_window", m.paceWindow},
               {"max_ar_order", m.maxArOrder},
               {"seed", m.seed},
+              {"mlp_retrain_days", m.mlpRetrainDays},
               {"criterion", std::string(criterionName(r.autoSelect.criterion))},
               {"window_days", r.autoSelect.windowDays},
               {"min_count", r.autoSelect.minCount},

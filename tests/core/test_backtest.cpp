@@ -207,6 +207,55 @@ TEST(Backtest, SameRowsWithOneOrTwoThreads) {
   }
 }
 
+// MethodOptions::mlpRetrainDays: the nets trained at the first reading date of each block of k
+// days serve the block's later dates. The blocks are fixed by the dates alone, so one or two
+// threads give the same rows; the forecasts of a block's first date are those of k = 1 (nets
+// trained at that date), and later dates differ (nets from an earlier date); and nothing after
+// a reading date changes its forecasts.
+TEST(Backtest, MlpRetrainedPerBlockOfDaysIsThreadIndependentAndLooksNoFurther) {
+  const auto &s = sampleCase().sample;
+  const Date t = d(2025, 6, 15);
+  BacktestOptions o = sampleOptions(t);
+  o.methods = {"mlp"};
+  o.from = t - 3; // reading dates t − 3 … t: blocks {t − 3, t − 2, t − 1} and {t} with k = 3
+  o.leads = {7, 30};
+  const cb::CurveCube cube = Backtest::buildCube(s.reservations, o, cb::SeriesBy::Total);
+  const auto every = Backtest::run(cube, s.property, o);
+  o.methodOptions.mlpRetrainDays = 3;
+  o.threads = 1;
+  const auto one = Backtest::run(cube, s.property, o);
+  o.threads = 2;
+  const auto two = Backtest::run(cube, s.property, o);
+  ASSERT_EQ(one.rows.size(), two.rows.size());
+  ASSERT_EQ(one.rows.size(), every.rows.size());
+  ASSERT_EQ(one.rows.size(), 8u); // 4 reading dates × 2 leads
+  int same = 0, differ = 0;
+  for (std::size_t i = 0; i < one.rows.size(); ++i) {
+    const BacktestRow &a = one.rows[i], &b = two.rows[i], &e = every.rows[i];
+    ASSERT_EQ(std::tie(a.reading, a.night, a.lead, a.forecast),
+              std::tie(b.reading, b.night, b.lead, b.forecast));
+    ASSERT_EQ(std::tie(a.reading, a.lead), std::tie(e.reading, e.lead));
+    if (a.reading == t - 3 || a.reading == t) {
+      EXPECT_EQ(a.forecast, e.forecast) << a.reading.toIso(); // a block's first date
+      ++same;
+    } else {
+      differ += a.forecast != e.forecast;
+    }
+  }
+  EXPECT_EQ(same, 4);
+  EXPECT_GT(differ, 0);
+  // Bookings after the last reading date change nothing (the reused nets saw only older data).
+  std::vector<cb::Reservation> later = s.reservations;
+  for (cb::Reservation &r : later)
+    if (r.bookedOn > t)
+      r.rooms += 1;
+  const cb::CurveCube b = Backtest::buildCube(later, o, cb::SeriesBy::Total);
+  const auto changed = Backtest::run(b, s.property, o);
+  ASSERT_EQ(changed.rows.size(), one.rows.size());
+  for (std::size_t i = 0; i < one.rows.size(); ++i)
+    EXPECT_EQ(one.rows[i].forecast, changed.rows[i].forecast);
+}
+
 // The no-look-ahead proof (issue 4): deleting and changing every kind of activity dated after t
 // leaves every forecast made on or before t unchanged, for every method and for auto.
 TEST(Backtest, NothingAfterTheReadingDateChangesAnyForecast) {
