@@ -20,6 +20,7 @@
 #include <limits>
 #include <streambuf>
 #include <string_view>
+#include <thread>
 #include <vector>
 
 namespace cb {
@@ -506,18 +507,33 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   }
   store.finishImport(log);
   const std::uint64_t stampAfter = store.reservationStamp(); // this import's own stamp
+  // The snapshot is written on a second thread while SQLite commits (the commit writes the
+  // whole transaction out; the snapshot needs only the rows in hand). Should the commit fail,
+  // the snapshot carries a stamp the store never shows, so it is never read.
+  std::thread snapshotWriter;
+  if (stampAfter != stampBefore && writtenComplete)
+    snapshotWriter = std::thread([&, snapshot = snapshotPathFor(store.path())]() noexcept {
+      try {
+        if (storedBefore == 0) {
+          std::sort(written.begin(), written.end(),
+                    [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
+          writeReservationSnapshot(snapshot, stampAfter, written);
+        } else {
+          updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written));
+        }
+      } catch (...) {
+        // Only a cache (out of memory, say): the next read rebuilds it from the store.
+      }
+    });
+  struct Join {
+    std::thread &t;
+    ~Join() {
+      if (t.joinable())
+        t.join();
+    }
+  } join{snapshotWriter};
   tx->commit();
   rep.written = true;
-  if (stampAfter != stampBefore && writtenComplete) {
-    const auto snapshot = snapshotPathFor(store.path());
-    if (storedBefore == 0) {
-      std::sort(written.begin(), written.end(),
-                [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
-      writeReservationSnapshot(snapshot, stampAfter, written);
-    } else {
-      updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written));
-    }
-  }
   return rep;
 }
 
