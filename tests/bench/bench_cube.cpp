@@ -160,6 +160,18 @@ void BM_Cube1MBySegment(benchmark::State &s) {
   cubeBuild(s, millionBookings, cb::SeriesBy::Segment);
 }
 
+/// The timed loop of the load benchmarks: every reservation of `store` into memory.
+void loadEveryReservation(benchmark::State &state, const cb::Store &store) {
+  std::size_t rows = 0;
+  for (auto _ : state) {
+    auto rs = store.reservations();
+    rows = rs.size();
+    benchmark::DoNotOptimize(rs);
+  }
+  state.counters["reservations"] = static_cast<double>(rows);
+  state.SetItemsProcessed(state.iterations() * static_cast<std::int64_t>(rows));
+}
+
 /// Reading every reservation of the sample store into memory (what each screen starts from).
 void BM_LoadSampleStore(benchmark::State &state) {
   static const fs::path path = [] {
@@ -168,14 +180,7 @@ void BM_LoadSampleStore(benchmark::State &state) {
     return p;
   }();
   auto store = cb::Store::open(path);
-  std::size_t rows = 0;
-  for (auto _ : state) {
-    auto rs = store->reservations();
-    rows = rs.size();
-    benchmark::DoNotOptimize(rs);
-  }
-  state.counters["reservations"] = static_cast<double>(rows);
-  state.SetItemsProcessed(state.iterations() * static_cast<std::int64_t>(rows));
+  loadEveryReservation(state, *store);
 }
 
 } // namespace
@@ -235,13 +240,7 @@ const fs::path &millionStore() {
 void BM_LoadStore1MSnapshot(benchmark::State &state) {
   auto store = cb::Store::open(millionStore());
   store->reservations(); // makes sure the snapshot is current
-  std::size_t rows = 0;
-  for (auto _ : state) {
-    auto rs = store->reservations();
-    rows = rs.size();
-    benchmark::DoNotOptimize(rs);
-  }
-  state.counters["reservations"] = static_cast<double>(rows);
+  loadEveryReservation(state, *store);
 }
 
 /// The same from the SQLite table (no snapshot; the store opened read-only writes none).
@@ -250,13 +249,7 @@ void BM_LoadStore1MTable(benchmark::State &state) {
   std::error_code ec;
   fs::remove(snapshot, ec);
   auto store = cb::Store::open(millionStore(), cb::Store::Access::ReadOnly);
-  std::size_t rows = 0;
-  for (auto _ : state) {
-    auto rs = store->reservations();
-    rows = rs.size();
-    benchmark::DoNotOptimize(rs);
-  }
-  state.counters["reservations"] = static_cast<double>(rows);
+  loadEveryReservation(state, *store);
 }
 
 BENCHMARK(BM_LoadSampleStore)->Unit(benchmark::kMillisecond);
