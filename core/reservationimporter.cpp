@@ -18,8 +18,10 @@
 #include <cstring>
 #include <functional>
 #include <limits>
+#include <new>
 #include <streambuf>
 #include <string_view>
+#include <system_error>
 #include <thread>
 #include <vector>
 
@@ -378,9 +380,20 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
           ? std::numeric_limits<std::size_t>::max()
           : static_cast<std::size_t>(std::max<std::int64_t>(100000, storedBefore / 4));
   std::vector<Reservation> written;
-  if (storedBefore == 0) // about one row per 80 bytes of a native file; growing it cost 5 %
-    reserveLarge(written, static_cast<std::size_t>(std::max<std::int64_t>(fileSize, 0) / 80));
-  bool writtenComplete = true;
+  // Not for a dry run (nothing is written), and given up without failing the import when memory
+  // runs short: the snapshot is only a cache.
+  bool writtenComplete = !options.dryRun;
+  auto giveUpSnapshot = [&] {
+    writtenComplete = false;
+    std::vector<Reservation>().swap(written);
+  };
+  try {
+    if (storedBefore == 0 && writtenComplete) // about one row per 80 bytes of a native file;
+      reserveLarge(written,                   // growing the vector cost 5 % of the import
+                   static_cast<std::size_t>(std::max<std::int64_t>(fileSize, 0) / 80));
+  } catch (const std::bad_alloc &) {
+    giveUpSnapshot();
+  }
   const std::string idName = profile->sourceName("reservation_id");
   const int idColumn = profile->sourceColumn("reservation_id");
   // Every id the store holds (with its digest) and every id read so far (with its line): an
@@ -439,10 +452,14 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
         case UpsertResult::Unchanged: ++log.unchanged; break;
         }
         if (result != UpsertResult::Unchanged && writtenComplete) {
-          if (written.size() < keepAtMost)
-            written.push_back(r);
-          else
-            writtenComplete = false;
+          try {
+            if (written.size() < keepAtMost)
+              written.push_back(r);
+            else
+              giveUpSnapshot();
+          } catch (const std::bad_alloc &) {
+            giveUpSnapshot();
+          }
         }
       }
     } else {
@@ -511,20 +528,26 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   // whole transaction out; the snapshot needs only the rows in hand). Should the commit fail,
   // the snapshot carries a stamp the store never shows, so it is never read.
   std::thread snapshotWriter;
-  if (stampAfter != stampBefore && writtenComplete)
-    snapshotWriter = std::thread([&, snapshot = snapshotPathFor(store.path())]() noexcept {
-      try {
-        if (storedBefore == 0) {
-          std::sort(written.begin(), written.end(),
-                    [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
-          writeReservationSnapshot(snapshot, stampAfter, written);
-        } else {
-          updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written));
+  if (stampAfter != stampBefore && writtenComplete) {
+    try {
+      snapshotWriter = std::thread([&, snapshot = snapshotPathFor(store.path())]() noexcept {
+        try {
+          if (storedBefore == 0) {
+            std::sort(written.begin(), written.end(),
+                      [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
+            writeReservationSnapshot(snapshot, stampAfter, written);
+          } else {
+            updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written));
+          }
+        } catch (...) {
+          // Only a cache (out of memory, say): the next read rebuilds it from the store.
         }
-      } catch (...) {
-        // Only a cache (out of memory, say): the next read rebuilds it from the store.
-      }
-    });
+      });
+    } catch (...) {
+      // No thread (or no memory for its path) to be had: the import goes on without the
+      // snapshot, and the next read rebuilds it.
+    }
+  }
   struct Join {
     std::thread &t;
     ~Join() {

@@ -143,7 +143,8 @@ public:
       store(p + at.date(2, i), r.arrival.days());
       store(p + at.date(3, i), r.departure.days());
       store(p + at.rooms + 4 * i, static_cast<std::int32_t>(r.rooms));
-      store(p + at.rate + 8 * i, r.rate);
+      // -0 as 0, as SQLite stores it, so the snapshot reads back what the table would.
+      store(p + at.rate + 8 * i, r.rate == 0.0 ? 0.0 : r.rate);
       for (std::size_t k = 0; k < kCodes; ++k)
         store(p + at.code(k, i), codeOf[i][k]);
       const ReservationDigest d = digestOf(r);
@@ -211,7 +212,8 @@ public:
     std::size_t pos = layout_.texts;
     const auto textCount = load<std::uint32_t>(payload_.data() + pos);
     pos += 4;
-    if (textCount == 0 || textCount > payload_.size())
+    // Each text takes at least its 4-byte length: a larger count cannot be whole.
+    if (textCount == 0 || textCount > (payload_.size() - pos) / 4)
       return;
     texts_.reserve(textCount);
     for (std::uint32_t k = 0; k < textCount; ++k) {
@@ -311,7 +313,12 @@ public:
     struct stat info {};
     if (::fstat(fd, &info) == 0 && info.st_size > 0) {
       const auto size = static_cast<std::size_t>(info.st_size);
-      void *p = ::mmap(nullptr, size, PROT_READ, MAP_PRIVATE | MAP_POPULATE, fd, 0);
+#ifdef MAP_POPULATE
+      constexpr int kFlags = MAP_PRIVATE | MAP_POPULATE; // Linux: map the page cache in one call
+#else
+      constexpr int kFlags = MAP_PRIVATE;
+#endif
+      void *p = ::mmap(nullptr, size, PROT_READ, kFlags, fd, 0);
       if (p != MAP_FAILED) {
         map_ = p;
         bytes_ = std::string_view(static_cast<const char *>(p), size);
@@ -422,7 +429,13 @@ bool updateReservationSnapshot(const fs::path &file, std::uint64_t before, std::
   // Both in id order (the store's ORDER BY id compares bytes, as std::string's < does); a
   // changed row replaces the stored row with its id, a new id is inserted in its place.
   auto byId = [](const Reservation &a, const Reservation &b) { return a.id < b.id; };
-  std::sort(changed.begin(), changed.end(), byId);
+  // Stable, and the last row of an id kept: the store too keeps the last write of an id.
+  std::stable_sort(changed.begin(), changed.end(), byId);
+  changed.erase(
+      changed.begin(),
+      std::unique(changed.rbegin(), changed.rend(), [](const Reservation &a, const Reservation &b) {
+        return a.id == b.id;
+      }).base());
   std::vector<Reservation> merged;
   reserveLarge(merged, base->size() + changed.size());
   auto old = base->begin();

@@ -5,8 +5,10 @@
 // The store stays the only record. The snapshot is a cache keyed by the store's reservation
 // stamp (Store::reservationStamp), a random number the store replaces in the same transaction as
 // any reservation it writes; a snapshot with another stamp, another format, a bad checksum or a
-// short file is ignored and rebuilt from the store. Writing is best effort and atomic (a
-// temporary file renamed over the old one), so a read-only folder or a crash costs only speed.
+// short file is ignored and rebuilt from the store. A write to the reservations table that does
+// not go through Store (the sqlite3 tool, say) leaves the stamp as it was: delete the snapshot
+// then. Writing is best effort and atomic (a temporary file renamed over the old one), so a
+// read-only folder or a crash costs only speed.
 #pragma once
 
 #include "core/reservation.h"

@@ -967,8 +967,13 @@ std::vector<Reservation> Store::reservations() const {
   }
   // Best effort: a store opened for reading only leaves its folder alone, and a folder that
   // cannot be written costs only speed next time.
-  if (!readOnly())
-    writeReservationSnapshot(snapshotPathFor(path_), stamp, out);
+  if (!readOnly()) {
+    try {
+      writeReservationSnapshot(snapshotPathFor(path_), stamp, out);
+    } catch (...) {
+      // Out of memory for its buffer, say: the rows read are what matters.
+    }
+  }
   return out;
 }
 
@@ -1363,13 +1368,17 @@ StoreSummary Store::summary() const {
 }
 
 StoreSummary Store::summary(const std::vector<Reservation> &rows) const {
-  const bool own = !db_->inTransaction();
-  if (own)
-    db_->exec("BEGIN");
-  StoreSummary s = summaryOf(rows);
-  if (own)
+  if (db_->inTransaction())
+    return summaryOf(rows);
+  db_->exec("BEGIN");
+  try {
+    StoreSummary s = summaryOf(rows);
     db_->exec("COMMIT");
-  return s;
+    return s;
+  } catch (...) {
+    rollbackQuietly(*db_);
+    throw;
+  }
 }
 
 StoreSummary Store::summaryOf(const std::vector<Reservation> &rows) const {

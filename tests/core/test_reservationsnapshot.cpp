@@ -6,6 +6,7 @@
 #include "testsupport.h"
 
 #include <algorithm>
+#include <cmath>
 #include <fstream>
 #include <sstream>
 
@@ -105,6 +106,33 @@ TEST(ReservationSnapshot, RefusesAnotherStampAndDamagedBytes) {
     EXPECT_FALSE(cb::decodeReservationSnapshot(bad, 42)) << "byte " << at;
   }
   EXPECT_FALSE(cb::decodeReservationSnapshot(bytes + "x", 42));
+}
+
+TEST(ReservationSnapshot, UpdateMergesByIdAndTheLastRowOfAnIdWins) {
+  cbtest::TempDir dir;
+  const fs::path file = dir / "x.snapshot";
+  ASSERT_TRUE(cb::writeReservationSnapshot(file, 1, varied()));
+  EXPECT_FALSE(cb::updateReservationSnapshot(file, 9, 10, {booking("B1")})); // not stamp 9
+  ASSERT_TRUE(cb::updateReservationSnapshot(
+      file, 1, 2, {booking("B1", 1), booking("A2", 5), booking("B1", 4)}));
+  const auto rows = cb::readReservationSnapshot(file, 2);
+  ASSERT_TRUE(rows.has_value());
+  std::vector<std::string> ids;
+  for (const auto &r : *rows)
+    ids.push_back(r.id);
+  EXPECT_EQ(ids, (std::vector<std::string>{"A1", "A2", "A3", "A4", "B1", varied()[4].id}));
+  EXPECT_EQ((*rows)[1], booking("A2", 5)); // replaced whole
+  EXPECT_EQ((*rows)[4].rooms, 4);          // the later of the two B1 rows
+  EXPECT_FALSE(cb::readReservationSnapshot(file, 1).has_value());
+}
+
+TEST(ReservationSnapshot, NegativeZeroRateIsStoredAsZeroAsSqliteDoes) {
+  Reservation r = booking("Z1");
+  r.rate = -0.0;
+  const auto back = cb::decodeReservationSnapshot(cb::encodeReservationSnapshot(3, {r}), 3);
+  ASSERT_TRUE(back.has_value());
+  EXPECT_EQ((*back)[0].rate, 0.0);
+  EXPECT_FALSE(std::signbit((*back)[0].rate));
 }
 
 class SnapshotStoreTest : public ::testing::Test {
