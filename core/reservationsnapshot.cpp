@@ -135,7 +135,8 @@ public:
     for (std::size_t i = 0; i < n; ++i) {
       const Reservation &r = rows[i];
       store(p + at.idLengths + 4 * i, static_cast<std::uint32_t>(r.id.size()));
-      std::memcpy(p + idPos, r.id.data(), r.id.size());
+      if (!r.id.empty())
+        std::memcpy(p + idPos, r.id.data(), r.id.size());
       idPos += r.id.size();
       p[at.status + i] = static_cast<char>(static_cast<std::uint8_t>(r.status));
       store(p + at.date(0, i), r.bookedOn.days());
@@ -156,7 +157,8 @@ public:
     t += 4;
     for (std::string_view text : texts) {
       store(t, static_cast<std::uint32_t>(text.size()));
-      std::memcpy(t + 4, text.data(), text.size());
+      if (!text.empty()) // an empty view may hold a null pointer, which memcpy must not see
+        std::memcpy(t + 4, text.data(), text.size());
       t += 4 + text.size();
     }
 

@@ -1,5 +1,7 @@
 #include "core/samplestore.h"
 
+#include "core/reservationsnapshot.h"
+
 #include <fmt/format.h>
 
 namespace cb {
@@ -18,7 +20,7 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
   // never leaves a half-filled store where the workbench would take it for the sample.
   std::filesystem::path partial = storePath;
   partial += ".partial";
-  for (const char *suffix : {"", "-wal", "-shm"})
+  for (const char *suffix : {"", "-wal", "-shm", ".snapshot"})
     std::filesystem::remove(partial.string() + suffix);
   auto store = Store::create(partial, sample.property);
   {
@@ -53,6 +55,10 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
   }
   store.reset(); // closes the connection, folding the write-ahead log into the file
   std::filesystem::rename(partial, storePath);
+  // The import wrote the reservation snapshot beside the partial store; it goes with it (its
+  // stamp is in the store, so it stays current under the new name).
+  if (const auto snapshot = snapshotPathFor(partial); std::filesystem::exists(snapshot))
+    std::filesystem::rename(snapshot, snapshotPathFor(storePath));
   return report;
 }
 

@@ -1,4 +1,5 @@
 #include "core/samplestore.h"
+#include "core/reservationsnapshot.h"
 
 #include "testsupport.h"
 
@@ -26,6 +27,13 @@ TEST(SampleStore, HoldsEverythingTheSimulatorMade) {
   // Built under a temporary name: nothing of it is left beside the store.
   EXPECT_FALSE(std::filesystem::exists(dir / "s.curvebench.partial"));
   EXPECT_FALSE(std::filesystem::exists(dir / "s.curvebench.partial-wal"));
+  EXPECT_FALSE(std::filesystem::exists(dir / "s.curvebench.partial.snapshot"));
+  // The import's reservation snapshot moved with the store and is current under its new name.
+  EXPECT_TRUE(std::filesystem::exists(dir / "s.curvebench.snapshot"));
+  const auto snapshot =
+      cb::readReservationSnapshot(dir / "s.curvebench.snapshot", store->reservationStamp());
+  ASSERT_TRUE(snapshot.has_value());
+  EXPECT_EQ(snapshot->size(), sample.reservations.size());
   // And it refuses to overwrite an existing store.
   EXPECT_THROW(cb::buildSampleStore(dir / "s.curvebench", dir / "files2"), cb::StoreError);
 }
