@@ -1,5 +1,5 @@
-#include "core/samplestore.h"
 #include "core/reservationsnapshot.h"
+#include "core/samplestore.h"
 
 #include "testsupport.h"
 
