@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <array>
+#include <chrono>
 #include <cstdio>
 #include <cstring>
 #include <fstream>
@@ -394,6 +395,30 @@ bool visitSnapshotDigests(
   return true;
 }
 
+namespace {
+
+// A writer killed between writing its temporary file and the rename leaves "<file>.XXXXXXXX.tmp"
+// behind. Each successful write removes those older than an hour; younger ones may belong to a
+// writer still at work in another program.
+void removeStaleTemporaries(const fs::path &file) {
+  std::error_code ec;
+  const fs::path dir = file.has_parent_path() ? file.parent_path() : fs::path(".");
+  const std::string prefix = file.filename().string() + ".";
+  const auto cutoff = fs::file_time_type::clock::now() - std::chrono::hours(1);
+  for (fs::directory_iterator it(dir, ec), end; !ec && it != end; it.increment(ec)) {
+    const std::string name = it->path().filename().string();
+    if (name.size() != prefix.size() + 12 || name.compare(0, prefix.size(), prefix) != 0 ||
+        name.compare(name.size() - 4, 4, ".tmp") != 0)
+      continue;
+    std::error_code timeError;
+    const auto written = it->last_write_time(timeError);
+    if (!timeError && written < cutoff)
+      fs::remove(it->path(), timeError);
+  }
+}
+
+} // namespace
+
 bool writeReservationSnapshot(const fs::path &file, std::uint64_t stamp,
                               const std::vector<Reservation> &rows) {
   const Encoded encoded(stamp, rows);
@@ -420,6 +445,7 @@ bool writeReservationSnapshot(const fs::path &file, std::uint64_t stamp,
     fs::remove(temp, ec);
     return false;
   }
+  removeStaleTemporaries(file);
   return true;
 }
 

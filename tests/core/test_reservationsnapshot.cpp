@@ -6,6 +6,7 @@
 #include "testsupport.h"
 
 #include <algorithm>
+#include <chrono>
 #include <cmath>
 #include <fstream>
 #include <sstream>
@@ -133,6 +134,24 @@ TEST(ReservationSnapshot, NegativeZeroRateIsStoredAsZeroAsSqliteDoes) {
   ASSERT_TRUE(back.has_value());
   EXPECT_EQ((*back)[0].rate, 0.0);
   EXPECT_FALSE(std::signbit((*back)[0].rate));
+}
+
+TEST(ReservationSnapshot, WriteRemovesTemporariesAKilledWriterLeftOnlyWhenOld) {
+  cbtest::TempDir dir;
+  const fs::path file = dir / "s.snapshot";
+  const fs::path stale = dir / "s.snapshot.0badf00d.tmp";
+  const fs::path young = dir / "s.snapshot.1234abcd.tmp";
+  const fs::path other = dir / "t.snapshot.0badf00d.tmp";
+  for (const auto &p : {stale, young, other})
+    std::ofstream(p) << "partial";
+  const auto twoHoursAgo = fs::file_time_type::clock::now() - std::chrono::hours(2);
+  fs::last_write_time(stale, twoHoursAgo);
+  fs::last_write_time(other, twoHoursAgo);
+  ASSERT_TRUE(cb::writeReservationSnapshot(file, 7, {booking("A1")}));
+  EXPECT_FALSE(fs::exists(stale));
+  EXPECT_TRUE(fs::exists(young)); // may be another program's write in progress
+  EXPECT_TRUE(fs::exists(other)); // another store's
+  ASSERT_TRUE(cb::readReservationSnapshot(file, 7).has_value());
 }
 
 class SnapshotStoreTest : public ::testing::Test {
