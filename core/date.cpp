@@ -94,8 +94,13 @@ unsigned Date::isoWeekday() const {
 }
 
 std::string Date::toIso() const {
+  const auto buf = toIsoChars();
+  return std::string(buf.data(), buf.size());
+}
+
+std::array<char, 10> Date::toIsoChars() const {
   auto v = ymd(*this);
-  std::array<char, 11> buf{};
+  std::array<char, 10> buf{};
   int y = static_cast<int>(v.year());
   unsigned mo = static_cast<unsigned>(v.month()), da = static_cast<unsigned>(v.day());
   buf[0] = static_cast<char>('0' + (y / 1000) % 10);
@@ -108,7 +113,7 @@ std::string Date::toIso() const {
   buf[7] = '-';
   buf[8] = static_cast<char>('0' + da / 10);
   buf[9] = static_cast<char>('0' + da % 10);
-  return std::string(buf.data(), 10);
+  return buf;
 }
 
 std::optional<unsigned> monthFromEnglishName(std::string_view name) {

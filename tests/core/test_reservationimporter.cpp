@@ -760,6 +760,38 @@ TEST(ReservationImporter, FindingAfterAnEmbeddedNewlineIsOnItsOwnLine) {
                                        "on line 4"));
 }
 
+// Ids above the largest one known are taken as new without a lookup (the fast path for a first
+// extract in ascending order); ids below it, stored ids and repeats must still be found.
+TEST(ReservationImporter, IdsInAnyOrderAreMatchedWithTheStoreAndWithinTheFile) {
+  cbtest::TempDir tmp;
+  auto store = newStore(tmp);
+  const std::string row = ",booked,2026-01-01,,2026-02-01,2026-02-02,1,DBL,Leisure,Web,";
+  const auto first = tmp / "first.csv";
+  cbtest::writeFile(first, kHeader + "B2" + row + "90,,\n" + "B4" + row + "90,,\n");
+  ASSERT_TRUE(cb::importReservations(*store, first).written);
+  const auto second = tmp / "second.csv";
+  cbtest::writeFile(second, kHeader + "B1" + row + "80,,\n" + // below the largest stored: new
+                                "B5" + row + "80,,\n" +       // above it: new
+                                "B3" + row + "80,,\n" +       // between stored ones: new
+                                "B4" + row + "95,,\n" +       // stored, rate changed
+                                "B2" + row + "90,,\n" +       // stored, the same
+                                "B6" + row + "80,,\n" +       // above every id so far
+                                "B5" + row + "81,,\n");       // repeats line 3
+  ImportOptions lenient;
+  lenient.mode = ImportMode::Lenient;
+  auto rep = cb::importReservations(*store, second, lenient);
+  ASSERT_TRUE(rep.written);
+  EXPECT_EQ(rep.log.added, 4);
+  EXPECT_EQ(rep.log.updated, 1);
+  EXPECT_EQ(rep.log.unchanged, 1);
+  EXPECT_EQ(rep.log.rejected, 1);
+  EXPECT_TRUE(
+      hasFinding(rep.findings, "second.csv:8:1: reservation_id \"B5\" was already used on line 3"));
+  EXPECT_EQ(store->reservationCount(), 6);
+  EXPECT_DOUBLE_EQ(store->reservation("B4")->rate, 95.0);
+  EXPECT_DOUBLE_EQ(store->reservation("B5")->rate, 80.0);
+}
+
 TEST(ReservationImporter, MessagesNameEachColumnOnce) {
   cbtest::TempDir tmp;
   auto store = newStore(tmp);

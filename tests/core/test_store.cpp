@@ -159,6 +159,17 @@ TEST_F(StoreTest, CreateOpenRoundTripsEveryRecordType) {
   EXPECT_EQ(logs[0].finishedAt, "2025-06-01T08:00:02Z");
 }
 
+// A new store is made with 16 KB pages (a shallower b-tree for a million reservations); the
+// page size of an existing file never changes.
+TEST_F(StoreTest, NewStoresUse16KbPages) {
+  cb::Property p;
+  p.name = "Larkspur";
+  p.capacity = 12;
+  cb::Store::create(path, p).reset();
+  cb::SqliteDb db(path, cb::SqliteDb::Mode::ReadOnly);
+  EXPECT_EQ(db.queryInt64("PRAGMA page_size"), 16384);
+}
+
 TEST_F(StoreTest, EmptyCodesAreStoredAsNull) {
   auto store = Store::create(path, sampleProperty());
   Reservation r = makeReservation("N1");
