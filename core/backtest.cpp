@@ -39,7 +39,8 @@ void forecastAt(const CurveCube &cube, const Property &property,
                 const std::vector<int> &leads, Date t, const BacktestOptions &options,
                 std::vector<BacktestRow> &out) {
   const Date lastNight = std::min(cube.lastNight(), cube.asOf());
-  if (t + leads.front() > lastNight)
+  if (t + leads.front() > lastNight ||
+      (options.firstNight && t + leads.back() < *options.firstNight))
     return;
   // The unconstrained history as known at t, one per series (only what was known at t).
   std::vector<std::vector<double>> histories;
@@ -66,6 +67,8 @@ void forecastAt(const CurveCube &cube, const Property &property,
         const Date s = t + h;
         if (s > lastNight)
           break;
+        if (options.firstNight && s < *options.firstNight)
+          continue;
         const std::optional<double> f = methods[mi]->forecast(ctx, s);
         if (!f)
           continue;

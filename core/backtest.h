@@ -57,7 +57,10 @@ struct BacktestOptions {
   std::optional<UnconstrainOptions> unconstrain;
   const CensorSources *censoring = nullptr; ///< closures and denials; nullptr = none
   bool withBands = true; ///< false leaves BacktestRow::lo / hi empty (saves the quantile work)
-  unsigned threads = 0;  ///< 0 = every core
+  /// Only rows whose night is on or after it (no fit at a reading date whose leads all end
+  /// before it); nullopt = every night. Each row is the same as without it.
+  std::optional<Date> firstNight;
+  unsigned threads = 0;          ///< 0 = every core
   ProgressFn progress = nullptr; ///< (done, total) in reading dates; false cancels
   void *progressContext = nullptr;
 };

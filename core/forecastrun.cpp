@@ -11,6 +11,8 @@
 #include <chrono>
 #include <cmath>
 #include <map>
+#include <set>
+#include <tuple>
 
 namespace cb {
 namespace {
@@ -140,9 +142,38 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   bo.unconstrain = request.unconstrain;
   bo.censoring = request.censoring;
   bo.threads = request.threads;
-  bo.progress = request.progress;
-  bo.progressContext = request.progressContext;
-  const BacktestResult past = Backtest::run(cube, property, bo);
+
+  // Auto's evidence in two parts, the same numbers as one backtest of every method over every
+  // lead (tests/core/test_forecastrun.cpp compares them), at a fraction of the work: the choice
+  // reads only the errors of nights in the selection window, but the bands and spreads of the
+  // methods actually used read every night back to the calibration window. So the first part
+  // backtests every method on the selection window's nights only, the choices and forecasts
+  // are made, and the second part backtests each method that made a forecast over the lead
+  // buckets it made them in. Each backtest row depends only on its reading date, method, series
+  // and lead, so the rows are the same; the mlp nets of one reading date serve several
+  // (MethodOptions::mlpRetrainDays > 1) only in the one-part backtest, which that keeps.
+  // On the 1M benchmark property (365 nights) most of the work was training mlp nets (perf):
+  // a net per lead and reading date, most of them for nights only the bands would read.
+  const bool twoPart = isAuto && !request.fullEvidence && request.methodOptions.mlpRetrainDays <= 1;
+  // Progress as a share of the whole (in thousandths) over the parts: the first part fills
+  // the first half of the bar, each method of the second its share of the rest.
+  struct Progress {
+    const ForecastRequest *request;
+    double from = 0, span = 1;
+    static bool report(void *context, std::int64_t done, std::int64_t total) {
+      const auto *p = static_cast<const Progress *>(context);
+      const double share = total > 0 ? static_cast<double>(done) / static_cast<double>(total) : 1;
+      return p->request->progress(p->request->progressContext,
+                                  std::llround(1000.0 * (p->from + p->span * share)), 1000);
+    }
+  } progress{&request, 0, twoPart ? 0.5 : 1.0};
+  if (request.progress) {
+    bo.progress = &Progress::report;
+    bo.progressContext = &progress;
+  }
+  if (twoPart)
+    bo.firstNight = request.asOf - (request.autoSelect.windowDays - 1);
+  BacktestResult past = Backtest::run(cube, property, bo);
   ForecastRun run;
   run.method = request.method;
   run.readingDate = request.asOf;
@@ -151,78 +182,137 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
     return run;
   }
   const LeadBuckets buckets;
-  const ErrorWindow window(past.rows, buckets);
-  const ErrorBands bands(window, request.bands);
   std::vector<std::uint32_t> candidates(base.size());
   for (std::size_t i = 0; i < base.size(); ++i)
     candidates[i] = static_cast<std::uint32_t>(i);
-  const AutoSelector selector(window, candidates, request.autoSelect);
   std::uint32_t fallback = 0;
   for (std::size_t i = 0; i < base.size(); ++i)
     if (base[i] == "pickup-add")
       fallback = static_cast<std::uint32_t>(i);
 
+  // Choices and forecasts first; bands and spreads once every error they read is known.
+  struct Made {
+    ForecastValue value;
+    std::uint32_t series = 0, method = 0;
+    int bucket = 0;
+  };
+  std::vector<Made> made;
   Json params{{"options", optionsJson(request)}, {"methods", base}};
   Json evidence = Json::array();
-  for (std::size_t si = 0; si < cube.series().size(); ++si) {
-    // Fit each method once for this series; auto may use several across lead buckets.
-    std::vector<std::unique_ptr<ForecastMethod>> methods;
-    ForecastContext ctx(cube, si, request.asOf, property);
-    std::vector<double> history;
-    if (request.unconstrain) {
-      static const CensorSources none;
-      history =
-          unconstrainedFinals(cube, si, request.asOf, property,
-                              request.censoring ? *request.censoring : none, *request.unconstrain);
-      ctx.useHistory(&history);
-    }
-    for (const auto &name : base) {
-      methods.push_back(makeMethod(name, request.methodOptions));
-      methods.back()->fit(ctx);
-    }
-    int lastBucket = -1;
-    std::vector<std::uint32_t> order;
-    for (int h = 1; h <= request.horizon; ++h) {
-      const Date s = request.asOf + h;
-      const int b = buckets.bucketOf(h);
-      if (b != lastBucket) {
-        const AutoChoice choice = selector.choose(static_cast<std::uint32_t>(si), b, request.asOf);
-        order.clear();
-        for (const MethodEvidence &e : choice.evidence)
-          order.push_back(e.method);
-        if (std::find(order.begin(), order.end(), fallback) == order.end())
-          order.push_back(fallback);
-        if (isAuto) {
-          Json list = Json::array();
+  {
+    const ErrorWindow window(past.rows, buckets);
+    const AutoSelector selector(window, candidates, request.autoSelect);
+    for (std::size_t si = 0; si < cube.series().size(); ++si) {
+      // Fit each method once for this series; auto may use several across lead buckets.
+      std::vector<std::unique_ptr<ForecastMethod>> methods;
+      ForecastContext ctx(cube, si, request.asOf, property);
+      std::vector<double> history;
+      if (request.unconstrain) {
+        static const CensorSources none;
+        history = unconstrainedFinals(cube, si, request.asOf, property,
+                                      request.censoring ? *request.censoring : none,
+                                      *request.unconstrain);
+        ctx.useHistory(&history);
+      }
+      for (const auto &name : base) {
+        methods.push_back(makeMethod(name, request.methodOptions));
+        methods.back()->fit(ctx);
+      }
+      int lastBucket = -1;
+      std::vector<std::uint32_t> order;
+      for (int h = 1; h <= request.horizon; ++h) {
+        const Date s = request.asOf + h;
+        const int b = buckets.bucketOf(h);
+        if (b != lastBucket) {
+          const AutoChoice choice =
+              selector.choose(static_cast<std::uint32_t>(si), b, request.asOf);
+          order.clear();
           for (const MethodEvidence &e : choice.evidence)
-            list.push_back({{"method", base[e.method]}, {"count", e.count}, {"error", e.error}});
-          evidence.push_back({{"series", cube.series()[si]},
-                              {"leads", buckets.label(b)},
-                              {"chosen", choice.method ? Json(base[*choice.method]) : Json()},
-                              {"evidence", list}});
+            order.push_back(e.method);
+          if (std::find(order.begin(), order.end(), fallback) == order.end())
+            order.push_back(fallback);
+          if (isAuto) {
+            Json list = Json::array();
+            for (const MethodEvidence &e : choice.evidence)
+              list.push_back({{"method", base[e.method]}, {"count", e.count}, {"error", e.error}});
+            evidence.push_back({{"series", cube.series()[si]},
+                                {"leads", buckets.label(b)},
+                                {"chosen", choice.method ? Json(base[*choice.method]) : Json()},
+                                {"evidence", list}});
+          }
+          lastBucket = b;
         }
-        lastBucket = b;
-      }
-      for (std::uint32_t m : order) {
-        const std::optional<double> f = methods[m]->forecast(ctx, s);
-        if (!f)
-          continue;
-        ForecastValue v;
-        v.night = s;
-        v.series = cube.series()[si];
-        v.lead = h;
-        v.otb = ctx.otbNow(s).value_or(0);
-        v.forecast = *f;
-        v.method = base[m];
-        if (auto band = bands.band(static_cast<std::uint32_t>(si), m, b, request.asOf, *f)) {
-          v.lo = band->lo;
-          v.hi = band->hi;
+        for (std::uint32_t m : order) {
+          const std::optional<double> f = methods[m]->forecast(ctx, s);
+          if (!f)
+            continue;
+          Made x;
+          x.value.night = s;
+          x.value.series = cube.series()[si];
+          x.value.lead = h;
+          x.value.otb = ctx.otbNow(s).value_or(0);
+          x.value.forecast = *f;
+          x.value.method = base[m];
+          x.series = static_cast<std::uint32_t>(si);
+          x.method = m;
+          x.bucket = b;
+          made.push_back(std::move(x));
+          break;
         }
-        v.sd = rmsError(window, static_cast<std::uint32_t>(si), m, b, request.asOf, request.bands);
-        run.values.push_back(std::move(v));
-        break;
       }
     }
+  }
+
+  if (twoPart) {
+    // The second part: per method used, its leads in the buckets it was used in, every night.
+    std::map<std::uint32_t, std::set<int>> usedBuckets;
+    for (const Made &x : made)
+      usedBuckets[x.method].insert(x.bucket);
+    std::vector<BacktestRow> rows;
+    for (const BacktestRow &r : past.rows) // the first part's rows no second part replaces
+      if (auto it = usedBuckets.find(r.method);
+          it == usedBuckets.end() || !it->second.count(buckets.bucketOf(r.lead)))
+        rows.push_back(r);
+    progress.span = 0.5 / static_cast<double>(std::max<std::size_t>(usedBuckets.size(), 1));
+    progress.from = 0.5 - progress.span;
+    for (const auto &[m, used] : usedBuckets) {
+      progress.from += progress.span;
+      BacktestOptions more = bo;
+      more.firstNight.reset();
+      more.methods = {base[m]};
+      more.leads.clear();
+      for (int h = 1; h <= request.horizon; ++h)
+        if (used.count(buckets.bucketOf(h)))
+          more.leads.push_back(h);
+      BacktestResult part = Backtest::run(cube, property, more);
+      if (part.cancelled) {
+        run.cancelled = true;
+        return run;
+      }
+      for (BacktestRow r : part.rows) {
+        r.method = m;
+        rows.push_back(r);
+      }
+    }
+    // The order of the one-part backtest, (t, method, series, h): ErrorWindow keeps equal keys
+    // in the order given, and sums in that order.
+    std::sort(rows.begin(), rows.end(), [](const BacktestRow &a, const BacktestRow &b) {
+      return std::tie(a.reading, a.method, a.series, a.lead) <
+             std::tie(b.reading, b.method, b.series, b.lead);
+    });
+    past.rows = std::move(rows);
+  }
+
+  const ErrorWindow window(past.rows, buckets);
+  const ErrorBands bands(window, request.bands);
+  for (Made &x : made) {
+    ForecastValue &v = x.value;
+    if (auto band = bands.band(x.series, x.method, x.bucket, request.asOf, v.forecast)) {
+      v.lo = band->lo;
+      v.hi = band->hi;
+    }
+    v.sd = rmsError(window, x.series, x.method, x.bucket, request.asOf, request.bands);
+    run.values.push_back(std::move(v));
   }
   std::stable_sort(
       run.values.begin(), run.values.end(),

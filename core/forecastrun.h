@@ -60,6 +60,9 @@ struct ForecastRequest {
   std::optional<UnconstrainOptions> unconstrain;
   const CensorSources *censoring = nullptr; ///< closures and denials; nullptr = none
   unsigned threads = 0;                     ///< 0 = every core
+  /// Auto only: true runs the evidence backtest of every method over every lead at once (the
+  /// reference the faster two-part evidence is tested against; see ForecastRun::compute).
+  bool fullEvidence = false;
   ProgressFn progress = nullptr;
   void *progressContext = nullptr;
 };

@@ -207,6 +207,33 @@ TEST(Backtest, SameRowsWithOneOrTwoThreads) {
   }
 }
 
+// BacktestOptions::firstNight keeps exactly the rows of nights on or after it, each the same as
+// in the run without it (mlp's nets included, trained only for the leads asked for).
+TEST(Backtest, FirstNightKeepsExactlyTheLaterNightsRows) {
+  const auto &s = sampleCase().sample;
+  BacktestOptions o = sampleOptions(d(2025, 6, 15));
+  o.methods = {"naive", "pickup-add", "mlp"};
+  o.from = d(2025, 6, 1);
+  o.warmUp = false;
+  o.withBands = false;
+  const cb::CurveCube cube = Backtest::buildCube(s.reservations, o, cb::SeriesBy::Total);
+  const auto all = Backtest::run(cube, s.property, o);
+  o.firstNight = d(2025, 6, 20);
+  const auto later = Backtest::run(cube, s.property, o);
+  std::vector<BacktestRow> expected;
+  for (const BacktestRow &r : all.rows)
+    if (r.night >= *o.firstNight)
+      expected.push_back(r);
+  ASSERT_GT(expected.size(), 0u);
+  ASSERT_LT(expected.size(), all.rows.size());
+  ASSERT_EQ(later.rows.size(), expected.size());
+  for (std::size_t i = 0; i < expected.size(); ++i) {
+    const BacktestRow &a = later.rows[i], &b = expected[i];
+    ASSERT_EQ(std::tie(a.reading, a.night, a.series, a.lead, a.method, a.forecast, a.final),
+              std::tie(b.reading, b.night, b.series, b.lead, b.method, b.forecast, b.final));
+  }
+}
+
 // MethodOptions::mlpRetrainDays: the nets trained at the first reading date of each block of k
 // days serve the block's later dates. The blocks are fixed by the dates alone, so one or two
 // threads give the same rows; the forecasts of a block's first date are those of k = 1 (nets

@@ -3,6 +3,7 @@
 #include "core/forecastrun.h"
 
 #include "core/backtest.h"
+#include "core/simulator.h"
 #include "core/store.h"
 #include "testsupport.h"
 
@@ -181,4 +182,52 @@ TEST(ForecastRun, OverridesAreStoredWithReasonAuthorAndTime) {
   EXPECT_EQ(all[1].reason, "congress");
   EXPECT_EQ(all[1].author, "ana");
   EXPECT_EQ(all[1].createdAt.size(), 20u);
+}
+
+// Auto's two-part evidence (choices from the selection window's errors, then every night for
+// the methods used) against the one backtest of every method over every lead it replaces: the
+// same forecasts, bands, spreads and stored evidence, to the last bit. The simulated sample
+// property, a short horizon and window to keep the one-part run quick.
+TEST(ForecastRun, TwoPartEvidenceGivesExactlyTheOnePartRun) {
+  static const cb::SampleProperty sample = cb::simulateProperty();
+  cb::ForecastRequest req;
+  req.asOf = sample.readingDate - 20;
+  req.horizon = 16; // lead buckets 1, 2–3, 4–7, 8–14, 15–30
+  req.autoSelect.windowDays = 10;
+  req.autoSelect.minCount = 5;
+  int calls = 0;
+  std::int64_t lastDone = -1;
+  req.progress = [](void *context, std::int64_t done, std::int64_t total) {
+    auto *c = static_cast<std::pair<int *, std::int64_t *> *>(context);
+    ++*c->first;
+    EXPECT_EQ(total, 1000);
+    EXPECT_GE(done, 0);
+    EXPECT_LE(done, 1000);
+    *c->second = done;
+    return true;
+  };
+  std::pair<int *, std::int64_t *> seen{&calls, &lastDone};
+  req.progressContext = &seen;
+  const cb::ForecastRun fast = cb::ForecastRun::compute(sample.reservations, sample.property, req);
+  EXPECT_GT(calls, 0);
+  EXPECT_EQ(lastDone, 1000);
+  cb::ForecastRequest full = req;
+  full.fullEvidence = true;
+  full.progress = nullptr;
+  const cb::ForecastRun slow = cb::ForecastRun::compute(sample.reservations, sample.property, full);
+  ASSERT_EQ(fast.values.size(), 16u);
+  ASSERT_EQ(fast.values.size(), slow.values.size());
+  int banded = 0;
+  for (std::size_t i = 0; i < fast.values.size(); ++i) {
+    const cb::ForecastValue &a = fast.values[i], &b = slow.values[i];
+    EXPECT_EQ(a.night, b.night);
+    EXPECT_EQ(a.method, b.method) << a.night.toIso();
+    EXPECT_EQ(a.forecast, b.forecast) << a.night.toIso(); // exact: the same arithmetic
+    EXPECT_EQ(a.lo, b.lo) << a.night.toIso();
+    EXPECT_EQ(a.hi, b.hi) << a.night.toIso();
+    EXPECT_EQ(a.sd, b.sd) << a.night.toIso();
+    banded += a.lo.has_value() ? 1 : 0;
+  }
+  EXPECT_GT(banded, 0);
+  EXPECT_EQ(fast.parameters, slow.parameters); // the evidence of every choice, as stored
 }
