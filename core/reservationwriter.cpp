@@ -43,7 +43,7 @@ void ReservationWriter::add(Reservation &&r, bool stored) {
 
 void ReservationWriter::hand(bool last) {
   std::unique_lock lock(mutex_);
-  changed_.wait(lock, [&] { return queue_.size() < kBatchesAhead || failure_ || stop_; });
+  changed_.wait(lock, [&] { return queue_.size() < kBatchesAhead || failure_; });
   if (failure_)
     std::rethrow_exception(failure_);
   if (!filling_.empty())

@@ -70,7 +70,8 @@ private:
   std::deque<Batch> queue_;    ///< guarded by mutex_
   std::vector<Batch> spare_;   ///< emptied batches handed back for reuse; guarded by mutex_
   bool closing_ = false;       ///< guarded by mutex_: no batch will follow
-  bool stop_ = false;          ///< guarded by mutex_: abandon, drop the queue
+  bool stop_ = false;          ///< guarded by mutex_: abandoned, drop the queue (set on the
+                               ///< caller's thread, so add() never waits on it)
   std::exception_ptr failure_; ///< guarded by mutex_
   std::thread thread_;
 };
