@@ -37,31 +37,30 @@ std::uint32_t fallbackMethod(const std::vector<std::string> &base) {
 void forecastAt(const CurveCube &cube, const Property &property,
                 std::vector<std::unique_ptr<ForecastMethod>> &methods,
                 const std::vector<int> &leads, Date t, const BacktestOptions &options,
-                std::vector<BacktestRow> &out) {
+                const std::vector<CensorSources> &seriesSources, std::vector<BacktestRow> &out) {
   const Date lastNight = std::min(cube.lastNight(), cube.asOf());
   if (t + leads.front() > lastNight ||
       (options.firstNight && t + leads.back() < *options.firstNight))
     return;
+  const std::size_t firstSeries = options.series.value_or(0);
+  const std::size_t endSeries = options.series ? *options.series + 1 : cube.series().size();
   // The unconstrained history as known at t, one per series (only what was known at t).
   std::vector<std::vector<double>> histories;
-  if (options.unconstrain) {
-    static const CensorSources none;
-    const CensorSources &sources = options.censoring ? *options.censoring : none;
-    for (std::size_t si = 0; si < cube.series().size(); ++si)
+  if (options.unconstrain)
+    for (std::size_t si = firstSeries; si < endSeries; ++si)
       histories.push_back(
-          unconstrainedFinals(cube, si, t, property, sources, *options.unconstrain));
-  }
+          unconstrainedFinals(cube, si, t, property, seriesSources[si], *options.unconstrain));
   // One context per series, shared by every method: its table of finals is built once.
   std::vector<ForecastContext> contexts;
-  contexts.reserve(cube.series().size());
-  for (std::size_t si = 0; si < cube.series().size(); ++si) {
+  contexts.reserve(endSeries - firstSeries);
+  for (std::size_t si = firstSeries; si < endSeries; ++si) {
     contexts.emplace_back(cube, si, t, property);
     if (!histories.empty())
-      contexts.back().useHistory(&histories[si]);
+      contexts.back().useHistory(&histories[si - firstSeries]);
   }
   for (std::size_t mi = 0; mi < methods.size(); ++mi) {
-    for (std::size_t si = 0; si < cube.series().size(); ++si) {
-      const ForecastContext &ctx = contexts[si];
+    for (std::size_t si = firstSeries; si < endSeries; ++si) {
+      const ForecastContext &ctx = contexts[si - firstSeries];
       methods[mi]->fit(ctx);
       for (int h : leads) {
         const Date s = t + h;
@@ -112,6 +111,8 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
   const std::vector<int> leads = sortedLeads(options.leads);
   if (options.to < options.from)
     throw std::invalid_argument("backtest: the first reading date is after the last");
+  if (options.series && *options.series >= cube.series().size())
+    throw std::out_of_range("backtest: no such series");
   if (options.step < 1)
     throw std::invalid_argument("backtest: the step must be 1 day or more");
 
@@ -161,6 +162,15 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
       blockStart.push_back(i);
   blockStart.push_back(dates.size());
 
+  // The closures and denials of each series, sorted out once for all reading dates.
+  std::vector<CensorSources> seriesSources;
+  if (options.unconstrain) {
+    seriesSources.resize(cube.series().size());
+    for (std::size_t si = 0; si < cube.series().size() && options.censoring; ++si)
+      if (!options.series || si == *options.series)
+        seriesSources[si] = censorsFor(cube, si, *options.censoring);
+  }
+
   // Work is shared out by reading date; each date's rows go to their own slot, so the result
   // does not depend on which thread did what.
   std::vector<std::vector<BacktestRow>> perDate(dates.size());
@@ -180,7 +190,7 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
         for (const std::string &name : base)
           methods.push_back(options.factory(name, options.methodOptions));
         for (std::size_t i = blockStart[b]; i < blockStart[b + 1] && !cancel; ++i) {
-          forecastAt(cube, property, methods, leads, dates[i], options, perDate[i]);
+          forecastAt(cube, property, methods, leads, dates[i], options, seriesSources, perDate[i]);
           ++done;
           wake.notify_one();
         }
@@ -250,6 +260,8 @@ BacktestResult Backtest::run(const CurveCube &cube, const Property &property,
       for (std::size_t k = 0; k < perDate[i].size(); ++k)
         at[{perDate[i][k].method, perDate[i][k].series, perDate[i][k].lead}] = k;
       for (std::uint32_t si = 0; si < result.series.size(); ++si) {
+        if (options.series && si != *options.series)
+          continue;
         int lastBucket = -1;
         std::vector<std::uint32_t> order;
         for (int h : leads) {

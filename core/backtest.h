@@ -60,6 +60,9 @@ struct BacktestOptions {
   /// Only rows whose night is on or after it (no fit at a reading date whose leads all end
   /// before it); nullopt = every night. Each row is the same as without it.
   std::optional<Date> firstNight;
+  /// Only this series of the cube (its index); nullopt = every series. Each row is the same as
+  /// without it: a series' forecasts read its own cells and the hotel's (series 0) only.
+  std::optional<std::size_t> series;
   unsigned threads = 0;          ///< 0 = every core
   ProgressFn progress = nullptr; ///< (done, total) in reading dates; false cancels
   void *progressContext = nullptr;

@@ -295,30 +295,15 @@ std::optional<std::size_t> CurveCube::seriesIndex(const std::string &name) const
   return std::nullopt;
 }
 
-std::size_t CurveCube::cell(std::size_t series, Date night, int dba) const {
-  if (series >= series_.size() || night < first_ || night > last_ || dba < 0 || dba > maxDba_)
-    throw std::out_of_range(fmt::format("curve cube cell (series {}, night {}, lead {}) is outside "
-                                        "{} series, nights {}…{}, leads 0…{}",
-                                        series, night.toIso(), dba, series_.size(), first_.toIso(),
-                                        last_.toIso(), maxDba_));
-  return (series * static_cast<std::size_t>(nights_) + static_cast<std::size_t>(night - first_)) *
-             (static_cast<std::size_t>(maxDba_) + 1) +
-         static_cast<std::size_t>(dba);
-}
-
-int CurveCube::otbRooms(std::size_t series, Date night, int dba) const {
-  return rooms_[cell(series, night, dba)];
+void CurveCube::outOfRange(std::size_t series, Date night, int dba) const {
+  throw std::out_of_range(fmt::format("curve cube cell (series {}, night {}, lead {}) is outside "
+                                      "{} series, nights {}…{}, leads 0…{}",
+                                      series, night.toIso(), dba, series_.size(), first_.toIso(),
+                                      last_.toIso(), maxDba_));
 }
 
 double CurveCube::otbRevenue(std::size_t series, Date night, int dba) const {
   return static_cast<double>(revenue_[cell(series, night, dba)]) / kMicrosPerUnit;
-}
-
-std::optional<int> CurveCube::final(std::size_t series, Date night) const {
-  const std::size_t k = cell(series, night, 0);
-  if (night > asOf_)
-    return std::nullopt;
-  return rooms_[k];
 }
 
 std::optional<int> CurveCube::actual(std::size_t series, Date night) const {

@@ -67,16 +67,31 @@ public:
   bool known(Date night, int dba) const { return night - dba <= asOf_; }
   /// OTB(s, s − d) in rooms; requires series < series().size(), firstNight ≤ s ≤ lastNight and
   /// 0 ≤ d ≤ maxDba (else std::out_of_range). Unknown cells (see known()) read 0.
-  int otbRooms(std::size_t series, Date night, int dba) const;
+  int otbRooms(std::size_t series, Date night, int dba) const {
+    return rooms_[cell(series, night, dba)];
+  }
   /// Revenue on the books (rate × rooms), same cells; exact to 1e-6 of the currency unit.
   double otbRevenue(std::size_t series, Date night, int dba) const;
   /// Final(s) = OTB(s, s); nullopt when s is after asOf().
-  std::optional<int> final(std::size_t series, Date night) const;
+  std::optional<int> final(std::size_t series, Date night) const {
+    const std::size_t k = cell(series, night, 0);
+    if (night > asOf_)
+      return std::nullopt;
+    return rooms_[k];
+  }
   /// Actual(s) = Final(s) less no-show rooms; nullopt when s is after asOf().
   std::optional<int> actual(std::size_t series, Date night) const;
 
 private:
-  std::size_t cell(std::size_t series, Date night, int dba) const;
+  // Inline: the forecast methods and the unconstraining read cells in their innermost loops.
+  std::size_t cell(std::size_t series, Date night, int dba) const {
+    if (series >= series_.size() || night < first_ || night > last_ || dba < 0 || dba > maxDba_)
+      outOfRange(series, night, dba);
+    return (series * static_cast<std::size_t>(nights_) + static_cast<std::size_t>(night - first_)) *
+               (static_cast<std::size_t>(maxDba_) + 1) +
+           static_cast<std::size_t>(dba);
+  }
+  [[noreturn]] void outOfRange(std::size_t series, Date night, int dba) const;
   Date first_, last_, asOf_;
   int nights_ = 0, maxDba_ = 0;
   SeriesBy by_ = SeriesBy::Total;

@@ -14,14 +14,6 @@ ForecastContext::ForecastContext(const CurveCube &cube, std::size_t series, Date
     throw std::out_of_range("forecast series index out of range");
 }
 
-std::optional<int> ForecastContext::otb(Date night, int dba) const {
-  if (dba < 0 || dba > cube_.maxDba() || night < cube_.firstNight() || night > cube_.lastNight())
-    return std::nullopt;
-  if (night - dba > asOf_)
-    return std::nullopt; // after the reading date: not known yet
-  return cube_.otbRooms(series_, night, dba);
-}
-
 std::optional<int> ForecastContext::otbNow(Date night) const {
   int h = night - asOf_;
   if (h < 0)

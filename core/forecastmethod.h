@@ -30,7 +30,13 @@ public:
   int maxDba() const { return cube_.maxDba(); }
 
   /// OTB(s, s − d) when s − d ≤ asOf and the cell is inside the cube; nullopt otherwise.
-  std::optional<int> otb(Date night, int dba) const;
+  std::optional<int> otb(Date night, int dba) const { // inline: the pickup methods' inner loop
+    if (dba < 0 || dba > cube_.maxDba() || night < cube_.firstNight() || night > cube_.lastNight())
+      return std::nullopt;
+    if (night - dba > asOf_)
+      return std::nullopt; // after the reading date: not known yet
+    return cube_.otbRooms(series_, night, dba);
+  }
   /// OTB(s, t) as of the reading date itself (lead h = s − t); nullopt when h > maxDba, as the
   /// cube's earliest reading of s is s − maxDba. Build the cube with maxDba ≥ the longest lead.
   std::optional<int> otbNow(Date night) const;

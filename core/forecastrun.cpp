@@ -26,23 +26,26 @@ std::string nowUtc() {
 
 Json optionsJson(const ForecastRequest &r) {
   const MethodOptions &m = r.methodOptions;
-  return Json{{"horizon", r.horizon},
-              {"by", std::string(seriesByName(r.by))},
-              {"mavg_k", m.movingAverageK},
-              {"refs", m.references},
-              {"refs_seasonal", m.seasonalReferences},
-              {"seasonal_weeks", m.seasonalWeeks},
-              {"pace_window", m.paceWindow},
-              {"max_ar_order", m.maxArOrder},
-              {"seed", m.seed},
-              {"mlp_retrain_days", m.mlpRetrainDays},
-              {"criterion", std::string(criterionName(r.autoSelect.criterion))},
-              {"window_days", r.autoSelect.windowDays},
-              {"min_count", r.autoSelect.minCount},
-              {"band", {r.bands.lower, r.bands.upper}},
-              {"band_min_count", r.bands.minCount},
-              {"history", r.unconstrain ? std::string(unconstrainMethodName(r.unconstrain->method))
-                                        : std::string("observed")}};
+  Json j{{"horizon", r.horizon},
+         {"by", std::string(seriesByName(r.by))},
+         {"mavg_k", m.movingAverageK},
+         {"refs", m.references},
+         {"refs_seasonal", m.seasonalReferences},
+         {"seasonal_weeks", m.seasonalWeeks},
+         {"pace_window", m.paceWindow},
+         {"max_ar_order", m.maxArOrder},
+         {"seed", m.seed},
+         {"mlp_retrain_days", m.mlpRetrainDays},
+         {"criterion", std::string(criterionName(r.autoSelect.criterion))},
+         {"window_days", r.autoSelect.windowDays},
+         {"min_count", r.autoSelect.minCount},
+         {"band", {r.bands.lower, r.bands.upper}},
+         {"band_min_count", r.bands.minCount},
+         {"history", r.unconstrain ? std::string(unconstrainMethodName(r.unconstrain->method))
+                                   : std::string("observed")}};
+  if (r.series)
+    j["series"] = *r.series;
+  return j;
 }
 
 /// Root mean square of the errors of (series, method, bucket) whose nights lie in the band window
@@ -127,6 +130,17 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   co.by = request.by;
   co.asOf = request.asOf;
   const CurveCube cube = CurveCube::build(reservations, co);
+  std::optional<std::size_t> only;
+  if (request.series) {
+    only = cube.seriesIndex(*request.series);
+    if (!only) { // no such series in the data: nothing to forecast
+      ForecastRun run;
+      run.method = request.method;
+      run.readingDate = request.asOf;
+      run.parameters = Json{{"options", optionsJson(request)}, {"methods", base}}.dump();
+      return run;
+    }
+  }
 
   // The evidence: a backtest whose outcomes are the windowDays nights up to asOf.
   BacktestOptions bo;
@@ -142,6 +156,7 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   bo.unconstrain = request.unconstrain;
   bo.censoring = request.censoring;
   bo.threads = request.threads;
+  bo.series = only;
 
   // Auto's evidence in two parts, the same numbers as one backtest of every method over every
   // lead (tests/core/test_forecastrun.cpp compares them), at a fraction of the work: the choice
@@ -203,6 +218,8 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
     const ErrorWindow window(past.rows, buckets);
     const AutoSelector selector(window, candidates, request.autoSelect);
     for (std::size_t si = 0; si < cube.series().size(); ++si) {
+      if (only && si != *only)
+        continue;
       // Fit each method once for this series; auto may use several across lead buckets.
       std::vector<std::unique_ptr<ForecastMethod>> methods;
       ForecastContext ctx(cube, si, request.asOf, property);

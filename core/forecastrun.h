@@ -59,7 +59,11 @@ struct ForecastRequest {
   /// Train on unconstrained history (core/unconstrain.h); nullopt = the finals as observed.
   std::optional<UnconstrainOptions> unconstrain;
   const CensorSources *censoring = nullptr; ///< closures and denials; nullptr = none
-  unsigned threads = 0;                     ///< 0 = every core
+  /// Only the series of this name ("ALL" or a code of `by`); nullopt = every series. Its values
+  /// are the same as in the run of every series (each series' evidence is its own); a name the
+  /// data does not have gives no values.
+  std::optional<std::string> series;
+  unsigned threads = 0; ///< 0 = every core
   /// Auto only: true runs the evidence backtest of every method over every lead at once (the
   /// reference the faster two-part evidence is tested against; see ForecastRun::compute).
   bool fullEvidence = false;

@@ -7,6 +7,7 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
+#include <iterator>
 #include <limits>
 #include <map>
 #include <memory>
@@ -16,7 +17,12 @@
 namespace cb {
 namespace {
 
-const boost::math::normal_distribution<double> kStdNormal(0.0, 1.0);
+// Evaluated in double (Boost.Math's default policy promotes double arguments to long double):
+// the tail probabilities here feed an EM whose tolerance is far above double's few-ulp error,
+// and the long double erf and exp were a sixth of a backtest's time with unconstrained history
+// (perf, the 1M benchmark property).
+using DoublePrecision = boost::math::policies::policy<boost::math::policies::promote_double<false>>;
+const boost::math::normal_distribution<double, DoublePrecision> kStdNormal(0.0, 1.0);
 
 /// Beyond this z the upper tail 1 − Φ(z) (≈ 5e-198 at 30) is left for the continued fraction
 /// below; Boost's complement cdf underflows to 0 near z = 38, and φ/(1 − Φ) would be 0/0.
@@ -78,10 +84,32 @@ std::pair<double, double> meanSd(std::span<const double> v) {
   return {mean, std::sqrt(ss / static_cast<double>(v.size()))};
 }
 
-const char *weekdayName(Date d) {
+/// 0 = Monday.
+const char *weekdayName(std::size_t weekday) {
   static const char *const names[] = {"Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"};
-  return names[d.isoWeekday() - 1];
+  return names[weekday];
 }
+
+/// Which records speak for a series: every record for the total; for a segment series the
+/// ones of its segment (the cube names the empty code "(none)"); a channel or room-type series
+/// only whole-hotel closures, since closures and denials carry a segment and nothing else.
+class SeriesRecords {
+public:
+  SeriesRecords(const CurveCube &cube, std::size_t series)
+      : name_(cube.series().at(series)),
+        segmentSeries_(cube.by() == SeriesBy::Segment && series != 0), total_(series == 0) {}
+  bool segmentMatches(const std::string &segment) const {
+    return segmentSeries_ && (segment.empty() ? name_ == "(none)" : segment == name_);
+  }
+  bool closureSpeaks(const SalesClosure &c) const {
+    return c.segment.empty() || segmentMatches(c.segment);
+  }
+  bool denialSpeaks(const Denial &d) const { return total_ || segmentMatches(d.segment); }
+
+private:
+  const std::string &name_;
+  bool segmentSeries_, total_;
+};
 
 } // namespace
 
@@ -187,6 +215,16 @@ std::optional<UnconstrainMethod> parseUnconstrainMethod(std::string_view name) {
   return std::nullopt;
 }
 
+CensorSources censorsFor(const CurveCube &cube, std::size_t series, const CensorSources &sources) {
+  const SeriesRecords speaks(cube, series);
+  CensorSources out;
+  std::copy_if(sources.closures.begin(), sources.closures.end(), std::back_inserter(out.closures),
+               [&](const SalesClosure &c) { return speaks.closureSpeaks(c); });
+  std::copy_if(sources.denials.begin(), sources.denials.end(), std::back_inserter(out.denials),
+               [&](const Denial &d) { return speaks.denialSpeaks(d); });
+  return out;
+}
+
 std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t series, Date asOf,
                                            const Property &property, const CensorSources &sources,
                                            const UnconstrainOptions &options) {
@@ -203,15 +241,7 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
   const std::size_t count = static_cast<std::size_t>(last - first) + 1;
   auto index = [&](Date s) { return static_cast<std::size_t>(s - first); };
 
-  // Which records speak for this series: every record for the total; for a segment series the
-  // ones of its segment (the cube names the empty code "(none)"); a channel or room-type series
-  // only whole-hotel closures, since closures and denials carry a segment and nothing else.
-  const std::string &name = cube.series()[series];
-  const bool segmentSeries = cube.by() == SeriesBy::Segment && series != 0;
-  auto segmentMatches = [&](const std::string &segment) {
-    return segmentSeries && (segment.empty() ? std::string("(none)") : segment) == name;
-  };
-  const bool allDenials = series == 0;
+  const SeriesRecords speaks(cube, series);
 
   // Closures: one counts for night s when it was made on or before both the reading date and
   // the night itself (a closure made after the night turned no one away), and was in force for
@@ -222,7 +252,7 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
   for (const SalesClosure &c : sources.closures) {
     if (c.night < first || c.night > last)
       continue;
-    if (!(c.segment.empty() || segmentMatches(c.segment)))
+    if (!speaks.closureSpeaks(c))
       continue;
     if (c.closedOn > std::min(asOf, c.night) || (c.reopenedOn && *c.reopenedOn <= c.closedOn))
       continue;
@@ -231,7 +261,7 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
   // Denials and regrets requested on or before asOf, on every night they cover.
   std::vector<double> denied(count, 0.0);
   for (const Denial &d : sources.denials) {
-    if (d.requestedOn > asOf || !(allDenials || segmentMatches(d.segment)))
+    if (d.requestedOn > asOf || !speaks.denialSpeaks(d))
       continue;
     for (Date s = std::max(d.arrival, first); s < d.departure && s <= last; ++s)
       denied[index(s)] += static_cast<double>(d.rooms);
@@ -239,14 +269,23 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
 
   // Nights, and the season class of each calendar month (year and month) from the hotel's
   // finals over its capacity on the known nights: sum of finals / sum of capacity.
+  // Called for every series at every reading date of a backtest, so this works on indices
+  // (month number, weekday, group number) rather than names: the group's name is made only for
+  // the censored nights that report it.
   out.resize(count);
-  std::map<int, std::pair<double, double>> monthLoad; // year·12 + month → (finals, capacity)
+  const int firstMonth = first.year() * 12 + static_cast<int>(first.month());
+  auto monthOf = [&](Date s) {
+    return static_cast<std::size_t>(s.year() * 12 + static_cast<int>(s.month()) - firstMonth);
+  };
+  std::vector<std::pair<double, double>> monthLoad(monthOf(last) + 1); // (finals, capacity)
+  std::vector<int> capacityOf(count);
   for (Date s = first; s <= last; ++s) {
     NightDemand &n = out[index(s)];
     n.night = s;
     n.final = *cube.final(series, s);
     const double total = *cube.final(0, s);
     const int capacity = property.capacityOn(s);
+    capacityOf[index(s)] = capacity;
     // A night with no rooms on sale tells nothing of demand and is left uncensored.
     if (capacity > 0 && total >= (1.0 - property.selloutMargin) * capacity)
       n.reason = CensorReason::Full;
@@ -254,7 +293,7 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
       n.reason = CensorReason::Closed;
     n.denied = denied[index(s)];
     n.estimate = n.final;
-    auto &load = monthLoad[s.year() * 12 + static_cast<int>(s.month())];
+    auto &load = monthLoad[monthOf(s)];
     load.first += total;
     load.second += capacity;
   }
@@ -266,45 +305,64 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
   // the reference nights are those the hotel-level rule left uncensored.
   // A cube without depth (maxDba 0) cannot tell when the hotel filled: every full night stays
   // censored then.
+  // The sums depend only on the weekday and the fill lead (the night itself is full, so never
+  // among its own references), so each (weekday, fill lead) is summed once. Every term is a
+  // whole number of rooms, so the sums are exact in any order.
   if (series != 0 && options.minLateShare > 0 && cube.maxDba() > 0) {
+    const std::size_t depth = static_cast<std::size_t>(cube.maxDba()) + 1;
+    std::vector<std::optional<std::pair<double, double>>> sums(7 * depth); // (late, finals)
     std::vector<std::size_t> notTurnedAway;
     for (std::size_t i = 0; i < count; ++i) {
       if (out[i].reason != CensorReason::Full)
         continue;
       const Date s = out[i].night;
-      const double line = (1.0 - property.selloutMargin) * property.capacityOn(s);
+      const double line = (1.0 - property.selloutMargin) * capacityOf[i];
       int fill = 0;
       for (int d = cube.maxDba(); d >= 0; --d)
         if (cube.otbRooms(0, s, d) >= line) {
           fill = d;
           break;
         }
-      double late = 0, finals = 0;
-      for (int dir : {-7, 7})
-        for (Date r = s + dir; r >= first && r <= last; r += dir)
-          if (out[index(r)].reason == CensorReason::None) {
-            late += out[index(r)].final - cube.otbRooms(series, r, fill);
-            finals += out[index(r)].final;
+      auto &sum = sums[(i % 7) * depth + static_cast<std::size_t>(fill)];
+      if (!sum) {
+        double late = 0, finals = 0;
+        for (std::size_t k = i % 7; k < count; k += 7)
+          if (out[k].reason == CensorReason::None) {
+            late += out[k].final - cube.otbRooms(series, out[k].night, fill);
+            finals += out[k].final;
           }
-      if (finals > 0 && late / finals < options.minLateShare)
+        sum = std::make_pair(late, finals);
+      }
+      if (sum->second > 0 && sum->first / sum->second < options.minLateShare)
         notTurnedAway.push_back(i);
     }
     for (std::size_t i : notTurnedAway)
       out[i].reason = closed[i] ? CensorReason::Closed : CensorReason::None;
   }
 
-  // Groups of comparable nights: weekday × season class of the month, else weekday alone.
-  std::vector<std::string> fine(count), coarse(count);
-  std::map<std::string, std::vector<std::size_t>> members;
+  // Groups of comparable nights: weekday × season class of the month (group 7 + 3·weekday +
+  // season), else weekday alone (group = weekday, 0 = Monday).
+  constexpr std::size_t kSeasons = 3; // SeasonClass: Low, Shoulder, Peak
+  constexpr std::size_t kGroups = 7 + 7 * kSeasons;
+  std::vector<std::size_t> fine(count), coarse(count);
+  std::vector<std::vector<std::size_t>> members(kGroups);
+  std::vector<SeasonClass> monthSeason(monthLoad.size());
+  for (std::size_t m = 0; m < monthLoad.size(); ++m)
+    monthSeason[m] = classifySeason(monthLoad[m].first, monthLoad[m].second, options.seasons);
   for (std::size_t i = 0; i < count; ++i) {
     const Date s = out[i].night;
-    const auto &load = monthLoad[s.year() * 12 + static_cast<int>(s.month())];
-    coarse[i] = weekdayName(s);
-    fine[i] = coarse[i] + "/" +
-              std::string(seasonName(classifySeason(load.first, load.second, options.seasons)));
+    coarse[i] = s.isoWeekday() - 1;
+    fine[i] = 7 + coarse[i] * kSeasons + static_cast<std::size_t>(monthSeason[monthOf(s)]);
     members[fine[i]].push_back(i);
     members[coarse[i]].push_back(i);
   }
+  auto groupName = [&](std::size_t g) {
+    if (g < 7)
+      return std::string(weekdayName(g));
+    const std::size_t f = g - 7;
+    return std::string(weekdayName(f / kSeasons)) + "/" +
+           std::string(seasonName(static_cast<SeasonClass>(f % kSeasons)));
+  };
   auto usable = [&](const std::vector<std::size_t> &group) {
     const auto uncensored = std::count_if(group.begin(), group.end(), [&](std::size_t i) {
       return out[i].reason == CensorReason::None;
@@ -313,20 +371,28 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
   };
 
   // Each censored night's group: weekday × season if usable, else the weekday, else none.
-  std::map<std::string, bool> needed;
+  constexpr std::size_t kNoGroup = kGroups;
+  std::vector<std::size_t> groupOf(count, kNoGroup);
+  std::vector<bool> needed(kGroups, false);
+  std::vector<std::optional<bool>> isUsable(kGroups);
+  auto usableGroup = [&](std::size_t g) {
+    if (!isUsable[g])
+      isUsable[g] = usable(members[g]);
+    return *isUsable[g];
+  };
   for (std::size_t i = 0; i < count; ++i)
     if (out[i].reason != CensorReason::None) {
-      out[i].group = usable(members[fine[i]])     ? fine[i]
-                     : usable(members[coarse[i]]) ? coarse[i]
-                                                  : std::string();
-      if (!out[i].group.empty())
-        needed[out[i].group] = true;
+      groupOf[i] = usableGroup(fine[i]) ? fine[i] : usableGroup(coarse[i]) ? coarse[i] : kNoGroup;
+      if (groupOf[i] != kNoGroup) {
+        out[i].group = groupName(groupOf[i]);
+        needed[groupOf[i]] = options.method != UnconstrainMethod::None;
+      }
     }
-  if (options.method == UnconstrainMethod::None)
-    needed.clear();
   // One fit per group in use, over all its nights; the estimates go to the censored nights
   // assigned to that group (a weekday group also holds nights that have a finer group).
-  for (const auto &[key, unused] : needed) {
+  for (std::size_t key = 0; key < kGroups; ++key) {
+    if (!needed[key])
+      continue;
     const std::vector<std::size_t> &group = members[key];
     std::vector<double> values;
     std::unique_ptr<bool[]> flags(new bool[group.size()]); // std::vector<bool> is no span
@@ -345,7 +411,7 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
       projectionDetruncation(values, censored, options.tau, &estimate);
     }
     for (std::size_t k = 0; k < group.size(); ++k)
-      if (censored[k] && out[group[k]].group == key)
+      if (censored[k] && groupOf[group[k]] == key)
         out[group[k]].estimate = std::max(values[k], estimate[k]);
   }
   if (options.useDenials)

@@ -108,6 +108,12 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
                                            const Property &property, const CensorSources &sources,
                                            const UnconstrainOptions &options);
 
+/// The closures and denials of `sources` that speak for one series of the cube, the only ones
+/// unconstrainSeries reads for it (see above): unconstrainSeries gives the same result from
+/// these as from all. For callers that unconstrain one series at many reading dates (a
+/// backtest), so that each call does not pass over every record of the hotel.
+CensorSources censorsFor(const CurveCube &cube, std::size_t series, const CensorSources &sources);
+
 /// The estimates alone, index 0 = cube.firstNight() (what ForecastContext reads).
 std::vector<double> unconstrainedFinals(const CurveCube &cube, std::size_t series, Date asOf,
                                         const Property &property, const CensorSources &sources,

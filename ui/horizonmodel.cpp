@@ -134,8 +134,9 @@ HorizonData computeHorizon(const WorkbenchSession &session, int days, const std:
     return out;
   }
 
-  const cb::ForecastRun run =
-      cb::ForecastRun::compute(session.reservations(), property, segmentRequest(session, o));
+  cb::ForecastRequest request = segmentRequest(session, o);
+  request.series = segment; // this segment's values only, the same as in a run of all of them
+  const cb::ForecastRun run = cb::ForecastRun::compute(session.reservations(), property, request);
   out.method = qs(o.method);
   for (const cb::ForecastValue &v : run.values) {
     if (v.series != segment)

@@ -234,6 +234,44 @@ TEST(Backtest, FirstNightKeepsExactlyTheLaterNightsRows) {
   }
 }
 
+// BacktestOptions::series: one series of a by-segment cube, with unconstrained history, bands
+// and auto, gives exactly that series' rows of the backtest of every series.
+TEST(Backtest, OneSeriesKeepsExactlyThatSeriesRows) {
+  const auto &s = sampleCase().sample;
+  cb::CensorSources censors;
+  censors.denials = s.denials;
+  BacktestOptions o = sampleOptions(d(2025, 6, 15));
+  o.methods = {"naive", "pickup-add", "pickup-adv", "auto"};
+  o.from = d(2025, 6, 1);
+  o.unconstrain = cb::UnconstrainOptions{};
+  o.censoring = &censors;
+  const cb::CurveCube cube = Backtest::buildCube(s.reservations, o, cb::SeriesBy::Segment);
+  ASSERT_GE(cube.series().size(), 3u);
+  const auto all = Backtest::run(cube, s.property, o);
+  for (std::size_t si : {std::size_t{0}, std::size_t{2}}) {
+    o.series = si;
+    const auto one = Backtest::run(cube, s.property, o);
+    std::vector<BacktestRow> expected;
+    for (const BacktestRow &r : all.rows)
+      if (r.series == si)
+        expected.push_back(r);
+    ASSERT_GT(expected.size(), 0u);
+    ASSERT_EQ(one.rows.size(), expected.size()) << si;
+    int banded = 0;
+    for (std::size_t i = 0; i < expected.size(); ++i) {
+      const BacktestRow &a = one.rows[i], &b = expected[i];
+      ASSERT_EQ(
+          std::tie(a.reading, a.night, a.series, a.lead, a.method, a.forecast, a.final, a.lo, a.hi),
+          std::tie(b.reading, b.night, b.series, b.lead, b.method, b.forecast, b.final, b.lo,
+                   b.hi));
+      banded += a.lo.has_value() ? 1 : 0;
+    }
+    EXPECT_GT(banded, 0);
+  }
+  o.series = cube.series().size();
+  EXPECT_THROW(Backtest::run(cube, s.property, o), std::out_of_range);
+}
+
 // MethodOptions::mlpRetrainDays: the nets trained at the first reading date of each block of k
 // days serve the block's later dates. The blocks are fixed by the dates alone, so one or two
 // threads give the same rows; the forecasts of a block's first date are those of k = 1 (nets

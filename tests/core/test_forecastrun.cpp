@@ -231,3 +231,52 @@ TEST(ForecastRun, TwoPartEvidenceGivesExactlyTheOnePartRun) {
   EXPECT_GT(banded, 0);
   EXPECT_EQ(fast.parameters, slow.parameters); // the evidence of every choice, as stored
 }
+
+// A run of one series (what Horizon asks for when a segment is picked) against the run of every
+// series: the same values of that series, to the last bit, since each series' evidence,
+// unconstrained history and choices are its own. The simulated sample property by segment, with
+// its denials as censoring, so the unconstraining reads the series' own records.
+TEST(ForecastRun, OneSeriesGivesItsValuesFromTheRunOfEverySeries) {
+  static const cb::SampleProperty sample = cb::simulateProperty();
+  cb::CensorSources censors;
+  censors.denials = sample.denials;
+  cb::ForecastRequest req;
+  req.asOf = sample.readingDate - 20;
+  req.horizon = 30;
+  req.method = "pickup-adv";
+  req.by = cb::SeriesBy::Segment;
+  req.unconstrain = cb::UnconstrainOptions{};
+  req.censoring = &censors;
+  const cb::ForecastRun all = cb::ForecastRun::compute(sample.reservations, sample.property, req);
+  std::set<std::string> names;
+  for (const cb::ForecastValue &v : all.values)
+    names.insert(v.series);
+  ASSERT_GE(names.size(), 3u); // ALL and at least two segments
+  for (const std::string &name : names) {
+    cb::ForecastRequest one = req;
+    one.series = name;
+    const cb::ForecastRun run = cb::ForecastRun::compute(sample.reservations, sample.property, one);
+    std::vector<cb::ForecastValue> expected;
+    for (const cb::ForecastValue &v : all.values)
+      if (v.series == name)
+        expected.push_back(v);
+    ASSERT_EQ(run.values.size(), expected.size()) << name;
+    int banded = 0;
+    for (std::size_t i = 0; i < expected.size(); ++i) {
+      const cb::ForecastValue &a = run.values[i], &b = expected[i];
+      EXPECT_EQ(a.series, name);
+      EXPECT_EQ(a.night, b.night) << name;
+      EXPECT_EQ(a.otb, b.otb) << name << " " << a.night.toIso();
+      EXPECT_EQ(a.forecast, b.forecast) << name << " " << a.night.toIso();
+      EXPECT_EQ(a.lo, b.lo) << name << " " << a.night.toIso();
+      EXPECT_EQ(a.hi, b.hi) << name << " " << a.night.toIso();
+      EXPECT_EQ(a.sd, b.sd) << name << " " << a.night.toIso();
+      banded += a.lo.has_value() ? 1 : 0;
+    }
+    EXPECT_GT(banded, 0) << name;
+    EXPECT_NE(run.parameters.find("\"series\":\"" + name + "\""), std::string::npos);
+  }
+  cb::ForecastRequest none = req;
+  none.series = "NO-SUCH-SEGMENT";
+  EXPECT_TRUE(cb::ForecastRun::compute(sample.reservations, sample.property, none).values.empty());
+}

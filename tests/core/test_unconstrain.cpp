@@ -441,6 +441,47 @@ TEST(UnconstrainSample, NothingAfterTheReadingDateIsRead) {
   }
 }
 
+// censorsFor: the records it keeps for a series give that series exactly the nights of all the
+// records, and it keeps fewer than all for a segment (by segment and by channel, where only
+// whole-hotel closures speak).
+TEST(UnconstrainSample, TheSeriesOwnRecordsGiveTheSameNights) {
+  const cb::SampleProperty &s = sample();
+  const cb::CensorSources all{madeUpClosures(), s.denials};
+  for (cb::SeriesBy by : {cb::SeriesBy::Segment, cb::SeriesBy::Channel}) {
+    const auto cube = sampleCube(by);
+    const auto wholeHotel = std::count_if(all.closures.begin(), all.closures.end(),
+                                          [](const auto &c) { return c.segment.empty(); });
+    ASSERT_GT(wholeHotel, 0);
+    ASSERT_LT(wholeHotel, static_cast<long>(all.closures.size()));
+    for (std::size_t i = 0; i < cube.series().size(); ++i) {
+      const cb::CensorSources own = cb::censorsFor(cube, i, all);
+      const auto closures = static_cast<long>(own.closures.size());
+      if (i == 0) { // the total: every denial, whole-hotel closures only
+        EXPECT_EQ(closures, wholeHotel);
+        EXPECT_EQ(own.denials.size(), all.denials.size());
+      } else if (by == cb::SeriesBy::Channel) { // closures and denials name no channel
+        EXPECT_EQ(closures, wholeHotel);
+        EXPECT_TRUE(own.denials.empty());
+      } else { // a segment: its own and the whole hotel's
+        EXPECT_EQ(closures,
+                  cube.series()[i] == "CORP" ? static_cast<long>(all.closures.size()) : wholeHotel);
+        EXPECT_LT(own.denials.size(), all.denials.size()) << cube.series()[i];
+      }
+      for (UnconstrainMethod m :
+           {UnconstrainMethod::Em, UnconstrainMethod::ProjectionDetruncation}) {
+        cb::UnconstrainOptions o;
+        o.method = m;
+        const Date t = d("2025-06-15");
+        const auto a = cb::unconstrainSeries(cube, i, t, s.property, all, o);
+        const auto b = cb::unconstrainSeries(cube, i, t, s.property, own, o);
+        ASSERT_EQ(a.size(), b.size());
+        for (std::size_t k = 0; k < a.size(); ++k)
+          EXPECT_TRUE(same(a[k], b[k])) << cube.series()[i] << " " << a[k].night.toIso();
+      }
+    }
+  }
+}
+
 TEST(UnconstrainSample, EmBeatsTheFinalsOnCensoredNights) {
   // The simulator knows each night's true demand (requests that would have stayed on the books,
   // served or not): sample_property/true_demand.csv. Score on nights censored by finals.
