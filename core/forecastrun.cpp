@@ -129,7 +129,8 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   co.maxDba = request.horizon + 31; // as in Backtest::buildCube: room for the pace window
   co.by = request.by;
   co.asOf = request.asOf;
-  const CurveCube cube = CurveCube::build(reservations, co);
+  const auto shared = std::make_shared<const CurveCube>(CurveCube::build(reservations, co));
+  const CurveCube &cube = *shared;
   std::optional<std::size_t> only;
   if (request.series) {
     only = cube.seriesIndex(*request.series);
@@ -192,6 +193,8 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   ForecastRun run;
   run.method = request.method;
   run.readingDate = request.asOf;
+  if (request.keepCube)
+    run.cube = shared;
   if (past.cancelled) {
     run.cancelled = true;
     return run;

@@ -11,6 +11,7 @@
 #include "core/unconstrain.h"
 
 #include <cstdint>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -63,6 +64,9 @@ struct ForecastRequest {
   /// are the same as in the run of every series (each series' evidence is its own); a name the
   /// data does not have gives no values.
   std::optional<std::string> series;
+  /// Keep the run's curve cube in ForecastRun::cube, for a caller that reads more of its cells
+  /// (tens of MB at a large property, so only on request).
+  bool keepCube = false;
   unsigned threads = 0; ///< 0 = every core
   /// Auto only: true runs the evidence backtest of every method over every lead at once (the
   /// reference the faster two-part evidence is tested against; see ForecastRun::compute).
@@ -81,6 +85,9 @@ public:
   Date readingDate;
   std::vector<ForecastValue> values; ///< ordered by night, then series
   bool cancelled = false;
+  /// With ForecastRequest::keepCube, the curve cube the run read (every night from the first
+  /// arrival to the last forecast night, leads to horizon + 31); not saved.
+  std::shared_ptr<const CurveCube> cube;
 
   /// Forecasts nights asOf + 1 … asOf + horizon from the data as of asOf. Bands and auto's
   /// choice come from a backtest of the last 8 weeks of outcomes before asOf: reading dates

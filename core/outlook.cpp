@@ -216,9 +216,9 @@ Outlook computeOutlook(const std::vector<Reservation> &reservations, const Prope
                        const OutlookOptions &options) {
   if (options.days < 1)
     throw std::invalid_argument("the outlook needs 1 night or more");
-  const ForecastRun run =
-      ForecastRun::compute(reservations, property,
-                           requestFor(property, sources, options, options.days, SeriesBy::Total));
+  ForecastRequest request = requestFor(property, sources, options, options.days, SeriesBy::Total);
+  request.keepCube = true;
+  const ForecastRun run = ForecastRun::compute(reservations, property, request);
   Outlook out;
   out.asOf = options.asOf;
   out.method = options.method;
@@ -235,13 +235,22 @@ Outlook computeOutlook(const std::vector<Reservation> &reservations, const Prope
   Date firstNight = options.asOf - std::max(options.rateWindowDays, 1) + 1;
   for (Date s = options.asOf + 1; s <= lastNight; ++s)
     firstNight = std::min(firstNight, holidays.referenceNight(property, s));
-  CubeOptions co;
-  co.firstNight = firstNight;
-  co.lastNight = lastNight;
-  co.maxDba = options.days;
-  co.by = SeriesBy::Total;
-  co.asOf = options.asOf;
-  const CurveCube cube = CurveCube::build(reservations, co);
+  // The forecast run's cube when it holds those cells (it usually does: it starts at the first
+  // arrival), else one of our own. A cell is the same in either: OTB(s, s − d) does not depend
+  // on the cube's range or depth.
+  std::optional<CurveCube> own;
+  if (!run.cube || run.cube->by() != SeriesBy::Total || run.cube->firstNight() > firstNight ||
+      run.cube->lastNight() < lastNight || run.cube->maxDba() < options.days ||
+      run.cube->asOf() != options.asOf) {
+    CubeOptions co;
+    co.firstNight = firstNight;
+    co.lastNight = lastNight;
+    co.maxDba = options.days;
+    co.by = SeriesBy::Total;
+    co.asOf = options.asOf;
+    own = CurveCube::build(reservations, co);
+  }
+  const CurveCube &cube = own ? *own : *run.cube;
   const PickupRates rates = pickupRates(cube, options.asOf, options.rateWindowDays, options.days);
   const std::optional<Date> dataStart = firstArrival(reservations);
 

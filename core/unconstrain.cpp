@@ -273,10 +273,24 @@ std::vector<NightDemand> unconstrainSeries(const CurveCube &cube, std::size_t se
   // (month number, weekday, group number) rather than names: the group's name is made only for
   // the censored nights that report it.
   out.resize(count);
-  const int firstMonth = first.year() * 12 + static_cast<int>(first.month());
-  auto monthOf = [&](Date s) {
-    return static_cast<std::size_t>(s.year() * 12 + static_cast<int>(s.month()) - firstMonth);
-  };
+  // Each night's calendar month, counted from first's: a date conversion per month, not night.
+  std::vector<std::size_t> monthIndex(count);
+  {
+    int y = first.year();
+    unsigned m = first.month();
+    std::size_t k = 0;
+    Date next = m == 12 ? Date::fromYmd(y + 1, 1, 1) : Date::fromYmd(y, m + 1, 1);
+    for (Date s = first; s <= last; ++s) {
+      if (s == next) {
+        ++k;
+        y = s.year();
+        m = s.month();
+        next = m == 12 ? Date::fromYmd(y + 1, 1, 1) : Date::fromYmd(y, m + 1, 1);
+      }
+      monthIndex[index(s)] = k;
+    }
+  }
+  auto monthOf = [&](Date s) { return monthIndex[index(s)]; };
   std::vector<std::pair<double, double>> monthLoad(monthOf(last) + 1); // (finals, capacity)
   std::vector<int> capacityOf(count);
   for (Date s = first; s <= last; ++s) {

@@ -48,17 +48,24 @@ DateStudyJobs::DateStudyJobs(QObject *parent)
 }
 
 void DateStudyJobs::reset(WorkbenchSession *session) {
-  stop();
+  abandon();
   cache_.reset();
   session_ = session;
 }
 
-void DateStudyJobs::stop() {
+void DateStudyJobs::abandon() {
   if (progress_)
     progress_->cancel = true;
+  if (protCancel_)
+    *protCancel_ = true;
   ++generation_;
   queue_.clear();
-  // The workers read the session: it must outlive them.
+  std::erase_if(running_, [](const QFuture<ForecastCache> &f) { return f.isFinished(); });
+  std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
+}
+
+void DateStudyJobs::stop() {
+  abandon();
   for (auto &f : running_)
     f.waitForFinished();
   running_.clear();
@@ -76,7 +83,7 @@ void DateStudyJobs::ensure(int lead, int horizon, const std::string &first) {
       forecasting() && running_generation_ == generation_ && asOf_ == asOf && lead <= horizon_;
   if (cached || coming)
     return;
-  stop();
+  abandon(); // the job under way ends at its next reading date; the next one starts after it
   cache_.reset();
   asOf_ = asOf;
   horizon_ = horizon;
@@ -119,7 +126,7 @@ void DateStudyJobs::startNext() {
   std::vector<std::string> group = queue_.front();
   queue_.pop_front();
   progress_ = std::make_shared<CacheProgress>();
-  WorkbenchSession *s = session_;
+  auto s = std::make_shared<const WorkbenchSession>(*session_); // the job's own copy
   auto prog = progress_;
   const cb::Date asOf = asOf_;
   const int horizon = horizon_;
@@ -172,13 +179,15 @@ void DateStudyJobs::finished() {
 void DateStudyJobs::requestProtection(cb::Date night, const std::string &method) {
   if (!session_ || protWatcher_->isRunning())
     return;
-  WorkbenchSession *s = session_;
+  auto s = std::make_shared<const WorkbenchSession>(*session_); // the job's own copy
   const cb::Date asOf = session_->readingDate();
-  auto f = QtConcurrent::run(&protectionPool_, [s, night, asOf, method] {
+  protCancel_ = std::make_shared<std::atomic<bool>>(false);
+  protGeneration_ = generation_;
+  auto f = QtConcurrent::run(&protectionPool_, [s, night, asOf, method, cancel = protCancel_] {
     lowerThreadPriority();
     ProtectionOut out{night, asOf, method, std::nullopt, {}};
     try {
-      out.protection = computeProtection(*s, asOf, night, method);
+      out.protection = computeProtection(*s, asOf, night, method, cancel.get());
     } catch (const std::exception &e) {
       out.error = e.what();
     }

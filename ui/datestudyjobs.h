@@ -10,6 +10,8 @@
 #include <QFutureWatcher>
 #include <QThreadPool>
 
+#include <atomic>
+
 #include <deque>
 #include <functional>
 #include <memory>
@@ -34,7 +36,10 @@ public:
   DateStudyJobs(const DateStudyJobs &) = delete;
   DateStudyJobs &operator=(const DateStudyJobs &) = delete;
 
-  /// Cancels and waits for everything running, forgets the cache, reads `session` from now on.
+  /// Cancels everything running without waiting for it, forgets the cache, reads `session` from
+  /// now on. Each job works on its own copy of the session (they share the reservations), so
+  /// the window may change or close the session at once; a cancelled job ends within a reading
+  /// date of its backtest and its result is dropped.
   void reset(WorkbenchSession *session);
   /// Cancels and waits for everything running (the cache stays).
   void stop();
@@ -48,8 +53,11 @@ public:
   void requestProtection(cb::Date night, const std::string &method);
 
   std::shared_ptr<const ForecastCache> cache() const { return cache_; }
-  bool forecasting() const { return watcher_->isRunning() || !queue_.empty(); }
-  bool protecting() const { return protWatcher_->isRunning(); }
+  /// Work for the current session under way or queued (a cancelled job still ending is not).
+  bool forecasting() const {
+    return (watcher_->isRunning() && running_generation_ == generation_) || !queue_.empty();
+  }
+  bool protecting() const { return protWatcher_->isRunning() && protGeneration_ == generation_; }
   /// Progress: methods computed and methods asked for since the last reset of the queue.
   int done() const { return groupsDone_; }
   int total() const { return groupsTotal_; }
@@ -60,6 +68,8 @@ public:
   std::function<void()> onBusyChanged;                     ///< start or end of work
 
 private:
+  /// Cancels what runs and empties the queue, without waiting (the futures are kept for stop()).
+  void abandon();
   void startNext();
   void finished();
   WorkbenchSession *session_ = nullptr;
@@ -67,9 +77,10 @@ private:
   std::deque<std::vector<std::string>> queue_;
   cb::Date asOf_;
   int horizon_ = 0;
-  int generation_ = 0, running_generation_ = -1;
+  int generation_ = 0, running_generation_ = -1, protGeneration_ = -1;
   int groupsDone_ = 0, groupsTotal_ = 0;
   std::shared_ptr<CacheProgress> progress_;
+  std::shared_ptr<std::atomic<bool>> protCancel_; ///< of the protection under way
   QFutureWatcher<ForecastCache> *watcher_;
   QFutureWatcher<ProtectionOut> *protWatcher_;
   std::vector<QFuture<ForecastCache>> running_;

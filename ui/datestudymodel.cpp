@@ -107,11 +107,18 @@ ForecastCache computeForecastCache(const WorkbenchSession &session, cb::Date asO
 }
 
 cb::NightProtection computeProtection(const WorkbenchSession &session, cb::Date asOf,
-                                      cb::Date night, const std::string &method) {
+                                      cb::Date night, const std::string &method,
+                                      const std::atomic<bool> *cancel) {
   cb::OutlookOptions o;
   o.asOf = asOf;
   o.method = method;
   o.threads = 1; // leave a core to the UI
+  if (cancel) {
+    o.progress = [](void *context, std::int64_t, std::int64_t) {
+      return !static_cast<const std::atomic<bool> *>(context)->load();
+    };
+    o.progressContext = const_cast<std::atomic<bool> *>(cancel); // read only
+  }
   return cb::protectNight(session.reservations(), session.property(), session.censorSources(), asOf,
                           night, cb::ProtectionMethod::EmsrB, o);
 }

@@ -48,9 +48,11 @@ ForecastCache computeForecastCache(const WorkbenchSession &session, cb::Date asO
                                    CacheProgress *progress = nullptr);
 
 /// Protection of the night's segments with one method's forecasts (cb::protectNight, EMSR-b).
-/// Slow (it forecasts); run off the UI thread. Throws as cb::protectNight.
+/// Slow (it forecasts); run off the UI thread. Throws as cb::protectNight, and
+/// std::runtime_error when `cancel` turns true while it forecasts.
 cb::NightProtection computeProtection(const WorkbenchSession &session, cb::Date asOf,
-                                      cb::Date night, const std::string &method);
+                                      cb::Date night, const std::string &method,
+                                      const std::atomic<bool> *cancel = nullptr);
 
 class DateStudyModel {
 public:

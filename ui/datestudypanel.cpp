@@ -507,6 +507,11 @@ void DateStudyPanel::setSession(WorkbenchSession *session) {
   const bool same = session && session == d_->session && d_->model;
   const cb::Date keep = same ? d_->model->night() : cb::Date();
   d_->jobs->reset(session);
+  // Hidden, the forecasts of a new session (another reading date, say) wait until the panel is
+  // shown or the main window asks for them (once Horizon has drawn its own), so that the screen
+  // in view does not share the cores with work for one out of view.
+  if (!isVisible())
+    d_->started = false;
   d_->session = session;
   d_->model = session ? std::make_unique<DateStudyModel>(*session) : nullptr;
   if (!session) {

@@ -32,9 +32,9 @@ public:
   void setSession(WorkbenchSession *session);
   /// Shows one night (redraws within the night-switch budget, 50 ms on the sample property).
   void setNight(cb::Date night);
-  /// Starts the background forecasts of every method (done by itself when the panel is first
-  /// shown; the window calls it once the first screen is drawn, so the cache is warm early
-  /// without slowing the start).
+  /// Starts the background forecasts of every method (done by itself when the panel is shown;
+  /// the window calls it once Horizon is drawn, so the cache is warm early without slowing the
+  /// start). A session set while the panel is hidden waits for this again.
   void startBackgroundWork();
 
   // For tests and the benchmark.

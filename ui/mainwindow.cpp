@@ -543,7 +543,8 @@ void MainWindow::setSession(std::unique_ptr<WorkbenchSession> session) {
 bool MainWindow::setReadingDate(cb::Date date) {
   if (!session_)
     return false;
-  // Date Study's background jobs read the session: let them end before it changes.
+  // The panels let go of the session before it changes (Date Study's background jobs work on
+  // copies of their own and are cancelled, not waited for).
   dateStudy_->setSession(nullptr);
   accuracy_->setSession(nullptr);
   try {

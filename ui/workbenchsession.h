@@ -52,7 +52,7 @@ public:
     return nightIndex_->reservationsCovering(*reservations_, night);
   }
   /// Sales closures and denials/regrets: what unconstraining reads (core/unconstrain.h).
-  const cb::CensorSources &censorSources() const { return sources_; }
+  const cb::CensorSources &censorSources() const { return *sources_; }
   const std::vector<cb::EventNote> &events() const { return events_; }
   /// The reading date every screen uses ("as of"); starts at the newest activity.
   cb::Date readingDate() const { return readingDate_; }
@@ -74,7 +74,7 @@ private:
   std::vector<cb::Segment> segments_;
   std::shared_ptr<const std::vector<cb::Reservation>> reservations_;
   std::shared_ptr<const cb::NightIndex> nightIndex_; ///< over reservations_, built once when read
-  cb::CensorSources sources_;
+  std::shared_ptr<const cb::CensorSources> sources_; ///< shared by copies, as the reservations
   std::vector<cb::EventNote> events_;
   cb::Date readingDate_, newest_, firstBooked_;
 };

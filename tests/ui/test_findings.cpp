@@ -125,7 +125,8 @@ private slots:
   }
 
   // Date Study starts its background forecasts only once shown (or asked to): a window that
-  // opens on Horizon does not spend its first seconds on them.
+  // opens on Horizon, or whose reading date moves while Horizon is shown, does not spend its
+  // first seconds on them.
   void dateStudyWaitsUntilShown() {
     cbtest::TempDir dir;
     cb::buildSampleStore(dir / "s.curvebench", dir / "files");
@@ -138,6 +139,16 @@ private slots:
     QVERIFY(panel.isComputing());
     QTRY_VERIFY_WITH_TIMEOUT(panel.forecastText().contains(QStringLiteral("Forecast <b>")),
                              cbtest::kBackgroundWaitMs);
+    // Out of view, a new session (the reading date moved while Horizon is shown) waits again
+    // until the window asks (once Horizon has drawn) or the panel is shown; in view it starts.
+    panel.hide();
+    panel.setSession(session.get());
+    QVERIFY(!panel.isComputing());
+    panel.startBackgroundWork();
+    QVERIFY(panel.isComputing());
+    panel.show();
+    panel.setSession(session.get());
+    QVERIFY(panel.isComputing());
     panel.setSession(nullptr);
   }
 
