@@ -153,6 +153,20 @@ std::optional<Date> newestActivity(const std::vector<Reservation> &reservations)
   return newest;
 }
 
+ReservationBounds boundsOf(const std::vector<Reservation> &reservations) {
+  ReservationBounds b;
+  for (const Reservation &r : reservations) {
+    const Date d = r.cancelledOn ? std::max(r.bookedOn, *r.cancelledOn) : r.bookedOn;
+    if (!b.newest || d > *b.newest)
+      b.newest = d;
+    if (!b.firstArrival || r.arrival < *b.firstArrival)
+      b.firstArrival = r.arrival;
+    if (!r.isDayUse() && (!b.firstStay || r.arrival < *b.firstStay))
+      b.firstStay = r.arrival;
+  }
+  return b;
+}
+
 CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
                            const CubeOptions &options) {
   if (options.lastNight < options.firstNight)
@@ -161,7 +175,8 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
   if (options.maxDba < 0)
     throw AsOfError(
         fmt::format("max days before arrival must be 0 or more, not {}", options.maxDba));
-  const std::optional<Date> newest = newestActivity(reservations);
+  const std::optional<Date> newest =
+      options.newest && !reservations.empty() ? options.newest : newestActivity(reservations);
   if (!newest)
     throw AsOfError("the data has no bookings, so no reading date can be set");
   if (options.asOf && *options.asOf > *newest)

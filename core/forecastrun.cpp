@@ -105,7 +105,9 @@ std::vector<ForecastOverride> overrides(Store &store) {
 
 ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
                                  const Property &property, const ForecastRequest &request) {
-  const std::optional<Date> newest = newestActivity(reservations);
+  const ReservationBounds bounds =
+      request.bounds && !reservations.empty() ? *request.bounds : boundsOf(reservations);
+  const std::optional<Date> newest = bounds.newest;
   if (!newest)
     throw AsOfError("there are no reservations to forecast from");
   if (request.asOf > *newest)
@@ -120,15 +122,14 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   for (const auto &name : base)
     (void)makeMethod(name, request.methodOptions);
 
-  Date first = *newest;
-  for (const Reservation &r : reservations)
-    first = std::min(first, r.arrival);
+  const Date first = std::min(*newest, bounds.firstArrival.value_or(*newest));
   CubeOptions co;
   co.firstNight = std::min(first, request.asOf);
   co.lastNight = request.asOf + request.horizon;
   co.maxDba = request.horizon + 31; // as in Backtest::buildCube: room for the pace window
   co.by = request.by;
   co.asOf = request.asOf;
+  co.newest = newest;
   const auto shared = std::make_shared<const CurveCube>(CurveCube::build(reservations, co));
   const CurveCube &cube = *shared;
   std::optional<std::size_t> only;

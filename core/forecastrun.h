@@ -67,6 +67,9 @@ struct ForecastRequest {
   /// Keep the run's curve cube in ForecastRun::cube, for a caller that reads more of its cells
   /// (tens of MB at a large property, so only on request).
   bool keepCube = false;
+  /// boundsOf(reservations) when the caller knows them (saves a pass over the reservations);
+  /// they must be those of the reservations given.
+  std::optional<ReservationBounds> bounds;
   unsigned threads = 0; ///< 0 = every core
   /// Auto only: true runs the evidence backtest of every method over every lead at once (the
   /// reference the faster two-part evidence is tested against; see ForecastRun::compute).

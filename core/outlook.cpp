@@ -56,17 +56,10 @@ ForecastRequest requestFor(const Property &property, const CensorSources &source
     r.censoring = &sources;
   }
   r.threads = options.threads;
+  r.bounds = options.bounds;
   r.progress = options.progress;
   r.progressContext = options.progressContext;
   return r;
-}
-
-std::optional<Date> firstArrival(const std::vector<Reservation> &reservations) {
-  std::optional<Date> first;
-  for (const Reservation &r : reservations)
-    if (!r.isDayUse() && (!first || r.arrival < *first))
-      first = r.arrival;
-  return first;
 }
 
 /// Revenue and rooms picked up from lead h to arrival by the nights of the rate window (index h),
@@ -216,8 +209,11 @@ Outlook computeOutlook(const std::vector<Reservation> &reservations, const Prope
                        const OutlookOptions &options) {
   if (options.days < 1)
     throw std::invalid_argument("the outlook needs 1 night or more");
+  const ReservationBounds bounds =
+      options.bounds && !reservations.empty() ? *options.bounds : boundsOf(reservations);
   ForecastRequest request = requestFor(property, sources, options, options.days, SeriesBy::Total);
   request.keepCube = true;
+  request.bounds = bounds;
   const ForecastRun run = ForecastRun::compute(reservations, property, request);
   Outlook out;
   out.asOf = options.asOf;
@@ -248,11 +244,12 @@ Outlook computeOutlook(const std::vector<Reservation> &reservations, const Prope
     co.maxDba = options.days;
     co.by = SeriesBy::Total;
     co.asOf = options.asOf;
+    co.newest = bounds.newest;
     own = CurveCube::build(reservations, co);
   }
   const CurveCube &cube = own ? *own : *run.cube;
   const PickupRates rates = pickupRates(cube, options.asOf, options.rateWindowDays, options.days);
-  const std::optional<Date> dataStart = firstArrival(reservations);
+  const std::optional<Date> dataStart = bounds.firstStay;
 
   for (const ForecastValue &v : run.values) {
     if (v.series != "ALL")

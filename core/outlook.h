@@ -31,6 +31,9 @@ struct OutlookOptions {
   double minStayPeak = 0.7;   ///< a night with P(D ≥ C) ≥ this is a minimum-stay candidate …
   double minStayWeak = 0.75;  ///< … when a neighbour's constrained occupancy is below this
   int rateWindowDays = 28;    ///< nights whose pickup rates give the expected pickup rate
+  /// boundsOf(reservations) when the caller knows them (saves passes over the reservations);
+  /// they must be those of the reservations given.
+  std::optional<ReservationBounds> bounds;
   unsigned threads = 0;
   ProgressFn progress = nullptr;
   void *progressContext = nullptr;

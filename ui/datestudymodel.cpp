@@ -46,6 +46,7 @@ ForecastCache computeForecastCache(const WorkbenchSession &session, cb::Date asO
     req.by = cb::SeriesBy::Segment;
     req.unconstrain = unconstrain;
     req.censoring = &session.censorSources();
+    req.bounds = session.bounds();
     req.progress = keepGoing;
     req.progressContext = progress;
     // One worker thread: the other core stays free for the UI (a night switch within 50 ms).
@@ -113,6 +114,7 @@ cb::NightProtection computeProtection(const WorkbenchSession &session, cb::Date 
   o.asOf = asOf;
   o.method = method;
   o.threads = 1; // leave a core to the UI
+  o.bounds = session.bounds();
   if (cancel) {
     o.progress = [](void *context, std::int64_t, std::int64_t) {
       return !static_cast<const std::atomic<bool> *>(context)->load();

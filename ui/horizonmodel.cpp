@@ -37,6 +37,7 @@ cb::ForecastRequest segmentRequest(const WorkbenchSession &session, const cb::Ou
   r.method = o.method;
   r.by = cb::SeriesBy::Segment;
   r.methodOptions = o.methodOptions;
+  r.bounds = o.bounds;
   if (p.settings.unconstrainHistory) {
     auto m = cb::parseUnconstrainMethod(p.settings.unconstrainMethod);
     if (!m)
@@ -66,6 +67,7 @@ HorizonData computeHorizon(const WorkbenchSession &session, int days, const std:
   cb::OutlookOptions o;
   o.asOf = session.readingDate();
   o.days = days;
+  o.bounds = session.bounds();
   HorizonData out;
   out.asOf = toQDate(o.asOf);
   out.segment = qs(segment);

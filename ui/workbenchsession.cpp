@@ -15,6 +15,7 @@ std::unique_ptr<WorkbenchSession> WorkbenchSession::open(const std::filesystem::
   s->reservations_ = std::make_shared<const std::vector<cb::Reservation>>(db->reservations());
   s->summary_ = db->summary(*s->reservations_); // from the rows in hand: no second pass
   s->nightIndex_ = std::make_shared<const cb::NightIndex>(*s->reservations_);
+  s->bounds_ = cb::boundsOf(*s->reservations_);
   s->sources_ =
       std::make_shared<const cb::CensorSources>(cb::CensorSources{db->closures(), db->denials()});
   s->events_ = db->events();

@@ -51,6 +51,9 @@ public:
   std::vector<cb::Reservation> reservationsCovering(cb::Date night) const {
     return nightIndex_->reservationsCovering(*reservations_, night);
   }
+  /// Newest activity and first arrivals of the reservations, found once when read (the forecast
+  /// steps take them instead of a pass over a million reservations each).
+  const cb::ReservationBounds &bounds() const { return bounds_; }
   /// Sales closures and denials/regrets: what unconstraining reads (core/unconstrain.h).
   const cb::CensorSources &censorSources() const { return *sources_; }
   const std::vector<cb::EventNote> &events() const { return events_; }
@@ -74,6 +77,7 @@ private:
   std::vector<cb::Segment> segments_;
   std::shared_ptr<const std::vector<cb::Reservation>> reservations_;
   std::shared_ptr<const cb::NightIndex> nightIndex_; ///< over reservations_, built once when read
+  cb::ReservationBounds bounds_;                     ///< of reservations_
   std::shared_ptr<const cb::CensorSources> sources_; ///< shared by copies, as the reservations
   std::vector<cb::EventNote> events_;
   cb::Date readingDate_, newest_, firstBooked_;

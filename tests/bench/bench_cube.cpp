@@ -1,11 +1,14 @@
 // Timings of the curve cube build (total and by segment) on the sample property, the open city
 // dataset and a synthetic property of about 1,000,000 reservations, of parsing that property's
-// CSV, and of loading a store into memory (the sample; the 1M one from its snapshot and from the
-// table). Each data set is made once, before its first benchmark runs.
+// CSV, of loading a store into memory (the sample; the 1M one from its snapshot and from the
+// table), and of what Horizon computes on the 1M property. Each data set is made once, before its
+// first benchmark runs.
 #include "core/csvreader.h"
 #include "core/curvecube.h"
+#include "core/forecastrun.h"
 #include "core/mappingprofile.h"
 #include "core/nativeformat.h"
+#include "core/outlook.h"
 #include "core/reservationimporter.h"
 #include "core/reservationsnapshot.h"
 #include "core/samplestore.h"
@@ -105,10 +108,25 @@ const DataSet &openCity() {
   return set;
 }
 
+/// The synthetic property's settings and denials (what its outlook reads besides the rows).
+struct MillionExtras {
+  cb::Property property;
+  cb::CensorSources sources;
+  std::string segment; ///< its first segment code
+};
+MillionExtras &millionExtras() {
+  static MillionExtras extras;
+  return extras;
+}
+
 const DataSet &millionBookings() {
   static const DataSet set = [] {
     const auto t0 = std::chrono::steady_clock::now();
-    DataSet s{"synthetic 1M", cb::simulateProperty(cb::millionBookingConfig()).reservations, {}};
+    cb::SampleProperty sample = cb::simulateProperty(cb::millionBookingConfig());
+    millionExtras().property = sample.property;
+    millionExtras().sources.denials = std::move(sample.denials);
+    millionExtras().segment = sample.segments.front().code;
+    DataSet s{"synthetic 1M", std::move(sample.reservations), {}};
     std::fprintf(stderr, "simulated the synthetic property: %zu reservations in %.2f s\n",
                  s.reservations.size(), secondsSince(t0));
     return s;
@@ -252,6 +270,38 @@ void BM_LoadStore1MTable(benchmark::State &state) {
   loadEveryReservation(state, *store);
 }
 
+/// What Horizon computes when the reading date moves (the hotel's outlook of 90 nights, the
+/// default method, unconstrained history with the property's denials) and when a segment is
+/// picked (that segment's forecast of 90 nights), on the 1M property's reservations in memory.
+void BM_HorizonOutlook1M(benchmark::State &state) {
+  const DataSet &set = millionBookings();
+  cb::OutlookOptions o;
+  o.asOf = cb::millionBookingConfig().readingDate;
+  o.days = 90;
+  for (auto _ : state) {
+    const cb::Outlook out = cb::computeOutlook(set.reservations, millionExtras().property,
+                                               millionExtras().sources, {}, o);
+    benchmark::DoNotOptimize(out.nights.data());
+  }
+}
+
+void BM_HorizonSegment1M(benchmark::State &state) {
+  const DataSet &set = millionBookings();
+  cb::ForecastRequest r;
+  r.asOf = cb::millionBookingConfig().readingDate;
+  r.horizon = 90;
+  r.method = "pickup-adv";
+  r.by = cb::SeriesBy::Segment;
+  r.series = millionExtras().segment;
+  r.unconstrain = cb::UnconstrainOptions{};
+  r.censoring = &millionExtras().sources;
+  for (auto _ : state) {
+    const cb::ForecastRun run =
+        cb::ForecastRun::compute(set.reservations, millionExtras().property, r);
+    benchmark::DoNotOptimize(run.values.data());
+  }
+}
+
 BENCHMARK(BM_LoadSampleStore)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_ParseCsv1M)->Unit(benchmark::kMillisecond)->Iterations(3);
 BENCHMARK(BM_LoadStore1MSnapshot)->Unit(benchmark::kMillisecond)->Iterations(5);
@@ -262,5 +312,7 @@ BENCHMARK(BM_CubeOpenCityTotal)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_CubeOpenCityBySegment)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_Cube1MTotal)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_Cube1MBySegment)->Unit(benchmark::kMillisecond);
+BENCHMARK(BM_HorizonOutlook1M)->Unit(benchmark::kMillisecond)->Iterations(5);
+BENCHMARK(BM_HorizonSegment1M)->Unit(benchmark::kMillisecond)->Iterations(5);
 
 BENCHMARK_MAIN();

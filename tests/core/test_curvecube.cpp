@@ -470,3 +470,37 @@ TEST_F(OpenCity, CurvesMatchThePandasReference) {
   EXPECT_EQ(compared, 4 * 9 * 61); // 4 nights × (ALL + 8 segments) × d = 0…60
   EXPECT_EQ(perSeries.size(), cube.series().size()) << "every cube series is in the reference";
 }
+
+// boundsOf, by hand: the newest activity is a cancellation date when that is the latest; a day
+// use that arrives first counts for firstArrival, not for firstStay; a cube given the newest
+// activity (CubeOptions::newest) holds the same cells as one that finds it itself.
+TEST(CurveCube, BoundsOfTheReservationsInOnePass) {
+  std::vector<Reservation> rs = {
+      res("1", "2026-05-01", "2026-06-10", "2026-06-12", 2, 100, "TRN"),
+      res("2", "2026-05-20", "2026-06-05", "2026-06-05", 1, 50, "TRN"), // day use, first arrival
+      res("3", "2026-05-03", "2026-06-08", "2026-06-09", 1, 90, "GRP", "2026-06-01"),
+      res("4", "2026-05-25", "2026-06-12", "2026-06-14", 3, 80, "GRP")};
+  const cb::ReservationBounds b = cb::boundsOf(rs);
+  EXPECT_EQ(b.newest, d("2026-06-01"));
+  EXPECT_EQ(b.newest, cb::newestActivity(rs));
+  EXPECT_EQ(b.firstArrival, d("2026-06-05"));
+  EXPECT_EQ(b.firstStay, d("2026-06-08"));
+  const cb::ReservationBounds none = cb::boundsOf({});
+  EXPECT_FALSE(none.newest || none.firstArrival || none.firstStay);
+
+  CubeOptions o{d("2026-06-05"), d("2026-06-14"), 20, SeriesBy::Segment, d("2026-05-28")};
+  const CurveCube found = CurveCube::build(rs, o);
+  o.newest = b.newest;
+  const CurveCube given = CurveCube::build(rs, o);
+  ASSERT_EQ(found.series(), given.series());
+  int nonZero = 0;
+  for (std::size_t si = 0; si < found.series().size(); ++si)
+    for (Date s = o.firstNight; s <= o.lastNight; ++s)
+      for (int k = 0; k <= o.maxDba; ++k) {
+        EXPECT_EQ(found.otbRooms(si, s, k), given.otbRooms(si, s, k));
+        nonZero += found.otbRooms(si, s, k) != 0;
+      }
+  EXPECT_GT(nonZero, 0);
+  o.asOf = d("2026-06-02"); // after the newest activity: refused either way
+  EXPECT_THROW(CurveCube::build(rs, o), cb::AsOfError);
+}
