@@ -272,12 +272,14 @@ void BM_LoadStore1MTable(benchmark::State &state) {
 
 /// What Horizon computes when the reading date moves (the hotel's outlook of 90 nights, the
 /// default method, unconstrained history with the property's denials) and when a segment is
-/// picked (that segment's forecast of 90 nights), on the 1M property's reservations in memory.
+/// picked (that segment's forecast of 90 nights), on the 1M property's reservations in memory,
+/// with the reservations' bounds found once beforehand, as the workbench's session does.
 void BM_HorizonOutlook1M(benchmark::State &state) {
   const DataSet &set = millionBookings();
   cb::OutlookOptions o;
   o.asOf = cb::millionBookingConfig().readingDate;
   o.days = 90;
+  o.bounds = cb::boundsOf(set.reservations);
   for (auto _ : state) {
     const cb::Outlook out = cb::computeOutlook(set.reservations, millionExtras().property,
                                                millionExtras().sources, {}, o);
@@ -295,6 +297,7 @@ void BM_HorizonSegment1M(benchmark::State &state) {
   r.series = millionExtras().segment;
   r.unconstrain = cb::UnconstrainOptions{};
   r.censoring = &millionExtras().sources;
+  r.bounds = cb::boundsOf(set.reservations);
   for (auto _ : state) {
     const cb::ForecastRun run =
         cb::ForecastRun::compute(set.reservations, millionExtras().property, r);
