@@ -38,34 +38,37 @@ DateStudyJobs::DateStudyJobs(QObject *parent)
   forecastPool_.setMaxThreadCount(1);
   protectionPool_.setMaxThreadCount(1);
   QObject::connect(watcher_, &QFutureWatcherBase::finished, parent, [this] { finished(); });
-  QObject::connect(protWatcher_, &QFutureWatcherBase::finished, parent, [this] {
-    std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
-    if (onBusyChanged)
-      onBusyChanged();
-    if (onProtection && protWatcher_->future().resultCount() > 0)
-      onProtection(protWatcher_->result());
-  });
+  QObject::connect(protWatcher_, &QFutureWatcherBase::finished, parent,
+                   [this] { protectionEnded(); });
 }
 
 void DateStudyJobs::reset(WorkbenchSession *session) {
-  abandon();
+  abandonForecasts();
+  cancelProtection();
+  pendingProt_.reset();
+  ++sessionGeneration_;
   cache_.reset();
   session_ = session;
 }
 
-void DateStudyJobs::abandon() {
+void DateStudyJobs::abandonForecasts() {
   if (progress_)
     progress_->cancel = true;
-  if (protCancel_)
-    *protCancel_ = true;
   ++generation_;
   queue_.clear();
   std::erase_if(running_, [](const QFuture<ForecastCache> &f) { return f.isFinished(); });
+}
+
+void DateStudyJobs::cancelProtection() {
+  if (protCancel_)
+    *protCancel_ = true;
   std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
 }
 
 void DateStudyJobs::stop() {
-  abandon();
+  abandonForecasts();
+  cancelProtection();
+  pendingProt_.reset();
   for (auto &f : running_)
     f.waitForFinished();
   running_.clear();
@@ -79,11 +82,16 @@ void DateStudyJobs::ensure(int lead, int horizon, const std::string &first) {
     return;
   const cb::Date asOf = session_->readingDate();
   const bool cached = cache_ && cache_->asOf == asOf && lead <= cache_->horizon;
-  const bool coming =
-      forecasting() && running_generation_ == generation_ && asOf_ == asOf && lead <= horizon_;
+  // forecasting() counts only the work of the current generation: the queue waiting behind a
+  // cancelled job that is still ending is coming too.
+  const bool coming = forecasting() && asOf_ == asOf && lead <= horizon_;
   if (cached || coming)
     return;
-  abandon(); // the job under way ends at its next reading date; the next one starts after it
+  // The job under way ends at its next reading date; the next one starts after it. A protection
+  // for another reading date is of no use any more; one for this date goes on.
+  abandonForecasts();
+  if (protWatcher_->isRunning() && protAsOf_ != asOf)
+    cancelProtection();
   cache_.reset();
   asOf_ = asOf;
   horizon_ = horizon;
@@ -177,12 +185,47 @@ void DateStudyJobs::finished() {
 }
 
 void DateStudyJobs::requestProtection(cb::Date night, const std::string &method) {
-  if (!session_ || protWatcher_->isRunning())
+  if (!session_)
     return;
+  if (protWatcher_->isRunning()) {
+    const bool coming = protCurrentRunning() && protNight_ == night && protMethod_ == method &&
+                        protAsOf_ == session_->readingDate();
+    if (coming)
+      pendingProt_.reset();
+    else
+      pendingProt_.emplace(night, method); // the latest request wins
+    return;
+  }
+  startProtection(night, method);
+}
+
+void DateStudyJobs::protectionEnded() {
+  std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
+  // A cancelled job, or one for an earlier session, ends without a result: the screen would show
+  // "cancelled", or the figures of data no longer loaded, as if they were current.
+  std::optional<ProtectionOut> out;
+  if (protSession_ == sessionGeneration_ && protCancel_ && !*protCancel_ &&
+      protWatcher_->future().resultCount() > 0)
+    out = protWatcher_->result();
+  if (pendingProt_ && session_) {
+    const auto [night, method] = *pendingProt_;
+    pendingProt_.reset();
+    startProtection(night, method);
+  }
+  if (onBusyChanged)
+    onBusyChanged();
+  if (out && onProtection)
+    onProtection(*out);
+}
+
+void DateStudyJobs::startProtection(cb::Date night, const std::string &method) {
   auto s = std::make_shared<const WorkbenchSession>(*session_); // the job's own copy
   const cb::Date asOf = session_->readingDate();
   protCancel_ = std::make_shared<std::atomic<bool>>(false);
-  protGeneration_ = generation_;
+  protSession_ = sessionGeneration_;
+  protNight_ = night;
+  protAsOf_ = asOf;
+  protMethod_ = method;
   auto f = QtConcurrent::run(&protectionPool_, [s, night, asOf, method, cancel = protCancel_] {
     lowerThreadPriority();
     ProtectionOut out{night, asOf, method, std::nullopt, {}};

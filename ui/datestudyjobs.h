@@ -17,6 +17,7 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace cbui {
@@ -50,6 +51,9 @@ public:
   void requestSlow(const std::string &method);
   /// Methods computed only when asked for (minutes on the sample property).
   static bool isSlow(const std::string &method) { return method == "auto" || method == "mlp"; }
+  /// Computes the protection of `night` by `method` for the session's reading date. While
+  /// another protection runs, the latest request waits and starts when it ends; a request equal
+  /// to the one under way is already coming.
   void requestProtection(cb::Date night, const std::string &method);
 
   std::shared_ptr<const ForecastCache> cache() const { return cache_; }
@@ -57,7 +61,8 @@ public:
   bool forecasting() const {
     return (watcher_->isRunning() && running_generation_ == generation_) || !queue_.empty();
   }
-  bool protecting() const { return protWatcher_->isRunning() && protGeneration_ == generation_; }
+  /// A protection for the current session under way (not cancelled) or waiting to start.
+  bool protecting() const { return protCurrentRunning() || pendingProt_.has_value(); }
   /// Progress: methods computed and methods asked for since the last reset of the queue.
   int done() const { return groupsDone_; }
   int total() const { return groupsTotal_; }
@@ -68,8 +73,17 @@ public:
   std::function<void()> onBusyChanged;                     ///< start or end of work
 
 private:
-  /// Cancels what runs and empties the queue, without waiting (the futures are kept for stop()).
-  void abandon();
+  /// Cancels the forecast under way and empties the queue, without waiting (the futures are kept
+  /// for stop()).
+  void abandonForecasts();
+  /// Cancels the protection under way without waiting; its result will not be delivered.
+  void cancelProtection();
+  bool protCurrentRunning() const {
+    return protWatcher_->isRunning() && protSession_ == sessionGeneration_ && protCancel_ &&
+           !*protCancel_;
+  }
+  void startProtection(cb::Date night, const std::string &method);
+  void protectionEnded();
   void startNext();
   void finished();
   WorkbenchSession *session_ = nullptr;
@@ -77,7 +91,11 @@ private:
   std::deque<std::vector<std::string>> queue_;
   cb::Date asOf_;
   int horizon_ = 0;
-  int generation_ = 0, running_generation_ = -1, protGeneration_ = -1;
+  int generation_ = 0, running_generation_ = -1;
+  int sessionGeneration_ = 0, protSession_ = -1; ///< reset() counts sessions
+  cb::Date protNight_, protAsOf_;                ///< of the protection under way
+  std::string protMethod_;
+  std::optional<std::pair<cb::Date, std::string>> pendingProt_; ///< night, method
   int groupsDone_ = 0, groupsTotal_ = 0;
   std::shared_ptr<CacheProgress> progress_;
   std::shared_ptr<std::atomic<bool>> protCancel_; ///< of the protection under way

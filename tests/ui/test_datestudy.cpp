@@ -5,6 +5,7 @@
 #include "core/samplestore.h"
 #include "testsupport.h"
 #include "ui/datestudychart.h"
+#include "ui/datestudyjobs.h"
 #include "ui/datestudymodel.h"
 #include "ui/datestudypanel.h"
 #include "ui/workbenchsession.h"
@@ -36,6 +37,40 @@ private slots:
     dir_ = std::make_unique<cbtest::TempDir>();
     cb::buildSampleStore(*dir_ / "s.curvebench", *dir_ / "files");
     session_ = cbui::WorkbenchSession::open(*dir_ / "s.curvebench");
+  }
+
+  // A protection cancelled by a reset (a reload of the store) is never shown as current: the
+  // request made while it was still ending runs after it and is the only result delivered, with
+  // figures, not "cancelled". A request equal to the one under way does not run twice.
+  void protectionAfterResetIsTheNewOne() {
+    QObject parent;
+    cbui::DateStudyJobs jobs(&parent);
+    std::vector<cbui::ProtectionOut> got;
+    jobs.onProtection = [&](const cbui::ProtectionOut &o) { got.push_back(o); };
+    const cb::Date night = session_->defaultNight();
+    const cb::Date other = night + 1;
+    jobs.reset(session_.get());
+    jobs.requestProtection(night, "pickup-adv");
+    jobs.reset(session_.get()); // cancels it
+    jobs.requestProtection(other, "pickup-adv");
+    jobs.requestProtection(night, "pickup-adv"); // the latest request wins
+    QVERIFY(jobs.protecting());
+    QTRY_VERIFY_WITH_TIMEOUT(!jobs.protecting(), 120000);
+    QTest::qWait(50); // anything else would be delivered by now
+    QCOMPARE(got.size(), std::size_t(1));
+    QCOMPARE(got[0].night, night);
+    QCOMPARE(got[0].asOf, session_->readingDate());
+    QVERIFY2(got[0].error.empty(), got[0].error.c_str());
+    QVERIFY(got[0].protection.has_value());
+
+    got.clear();
+    jobs.requestProtection(other, "pickup-adv");
+    jobs.requestProtection(other, "pickup-adv"); // already coming
+    QTRY_VERIFY_WITH_TIMEOUT(!jobs.protecting(), 120000);
+    QTest::qWait(50);
+    QCOMPARE(got.size(), std::size_t(1));
+    QCOMPARE(got[0].night, other);
+    QVERIFY(got[0].protection.has_value());
   }
 
   // This year's curve of the model is OTB(s, s − d) of the curve cube (brief §4 definition),
