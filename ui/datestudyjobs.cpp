@@ -37,9 +37,18 @@ DateStudyJobs::DateStudyJobs(QObject *parent)
       protWatcher_(new QFutureWatcher<ProtectionOut>(parent)) {
   forecastPool_.setMaxThreadCount(1);
   protectionPool_.setMaxThreadCount(1);
-  QObject::connect(watcher_, &QFutureWatcherBase::finished, parent, [this] { finished(); });
-  QObject::connect(protWatcher_, &QFutureWatcherBase::finished, parent,
-                   [this] { protectionEnded(); });
+  forecastDone_ =
+      QObject::connect(watcher_, &QFutureWatcherBase::finished, parent, [this] { finished(); });
+  protectionDone_ = QObject::connect(protWatcher_, &QFutureWatcherBase::finished, parent,
+                                     [this] { protectionEnded(); });
+}
+
+DateStudyJobs::~DateStudyJobs() {
+  // The watchers belong to the parent and may outlive this object by a moment: no finished event
+  // may reach a destroyed one.
+  QObject::disconnect(forecastDone_);
+  QObject::disconnect(protectionDone_);
+  stop();
 }
 
 void DateStudyJobs::reset(WorkbenchSession *session) {
@@ -90,7 +99,7 @@ void DateStudyJobs::ensure(int lead, int horizon, const std::string &first) {
   // The job under way ends at its next reading date; the next one starts after it. A protection
   // for another reading date is of no use any more; one for this date goes on.
   abandonForecasts();
-  if (protWatcher_->isRunning() && protAsOf_ != asOf)
+  if (protInFlight_ && protAsOf_ != asOf)
     cancelProtection();
   cache_.reset();
   asOf_ = asOf;
@@ -126,7 +135,7 @@ void DateStudyJobs::requestSlow(const std::string &method) {
 }
 
 void DateStudyJobs::startNext() {
-  if (queue_.empty() || watcher_->isRunning()) {
+  if (queue_.empty() || forecastInFlight_) {
     if (onBusyChanged)
       onBusyChanged();
     return;
@@ -144,6 +153,7 @@ void DateStudyJobs::startNext() {
   });
   running_.push_back(f);
   running_generation_ = generation_;
+  forecastInFlight_ = true;
   watcher_->setFuture(f);
   if (onStatus)
     onStatus(isSlow(group[0])
@@ -158,6 +168,7 @@ void DateStudyJobs::startNext() {
 }
 
 void DateStudyJobs::finished() {
+  forecastInFlight_ = false;
   std::erase_if(running_, [](const QFuture<ForecastCache> &f) { return f.isFinished(); });
   if (running_generation_ != generation_ || watcher_->future().resultCount() == 0) {
     startNext();
@@ -187,7 +198,7 @@ void DateStudyJobs::finished() {
 void DateStudyJobs::requestProtection(cb::Date night, const std::string &method) {
   if (!session_)
     return;
-  if (protWatcher_->isRunning()) {
+  if (protInFlight_) {
     const bool coming = protCurrentRunning() && protNight_ == night && protMethod_ == method &&
                         protAsOf_ == session_->readingDate();
     if (coming)
@@ -200,6 +211,7 @@ void DateStudyJobs::requestProtection(cb::Date night, const std::string &method)
 }
 
 void DateStudyJobs::protectionEnded() {
+  protInFlight_ = false;
   std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
   // A cancelled job, or one for an earlier session, ends without a result: the screen would show
   // "cancelled", or the figures of data no longer loaded, as if they were current.
@@ -226,6 +238,7 @@ void DateStudyJobs::startProtection(cb::Date night, const std::string &method) {
   protNight_ = night;
   protAsOf_ = asOf;
   protMethod_ = method;
+  pendingProt_.reset();
   auto f = QtConcurrent::run(&protectionPool_, [s, night, asOf, method, cancel = protCancel_] {
     lowerThreadPriority();
     ProtectionOut out{night, asOf, method, std::nullopt, {}};
@@ -237,6 +250,7 @@ void DateStudyJobs::startProtection(cb::Date night, const std::string &method) {
     return out;
   });
   protRunning_.push_back(f);
+  protInFlight_ = true;
   protWatcher_->setFuture(f);
   if (onBusyChanged)
     onBusyChanged();

@@ -33,7 +33,7 @@ struct ProtectionOut {
 class DateStudyJobs {
 public:
   explicit DateStudyJobs(QObject *parent);
-  ~DateStudyJobs() { stop(); }
+  ~DateStudyJobs();
   DateStudyJobs(const DateStudyJobs &) = delete;
   DateStudyJobs &operator=(const DateStudyJobs &) = delete;
 
@@ -42,8 +42,11 @@ public:
   /// the window may change or close the session at once; a cancelled job ends within a reading
   /// date of its backtest and its result is dropped.
   void reset(WorkbenchSession *session);
-  /// Cancels and waits for everything running (the cache stays).
+  /// Cancels and waits for everything running (the cache stays). Blocks: for the destructor.
   void stop();
+  /// Cancels the forecasts under way and queued without waiting (the cache stays; the
+  /// protection goes on).
+  void cancelForecasts() { abandonForecasts(); }
   /// Starts the forecasts of every fast method for the session's reading date, up to `horizon`
   /// nights, `first` first — unless the cache or the work under way already reaches `lead`.
   void ensure(int lead, int horizon, const std::string &first);
@@ -59,7 +62,7 @@ public:
   std::shared_ptr<const ForecastCache> cache() const { return cache_; }
   /// Work for the current session under way or queued (a cancelled job still ending is not).
   bool forecasting() const {
-    return (watcher_->isRunning() && running_generation_ == generation_) || !queue_.empty();
+    return (forecastInFlight_ && running_generation_ == generation_) || !queue_.empty();
   }
   /// A protection for the current session under way (not cancelled) or waiting to start.
   bool protecting() const { return protCurrentRunning() || pendingProt_.has_value(); }
@@ -79,8 +82,7 @@ private:
   /// Cancels the protection under way without waiting; its result will not be delivered.
   void cancelProtection();
   bool protCurrentRunning() const {
-    return protWatcher_->isRunning() && protSession_ == sessionGeneration_ && protCancel_ &&
-           !*protCancel_;
+    return protInFlight_ && protSession_ == sessionGeneration_ && protCancel_ && !*protCancel_;
   }
   void startProtection(cb::Date night, const std::string &method);
   void protectionEnded();
@@ -92,6 +94,10 @@ private:
   cb::Date asOf_;
   int horizon_ = 0;
   int generation_ = 0, running_generation_ = -1;
+  // A job counts as under way until its watcher's finished() has been handled, not only until
+  // its thread ends (QFutureWatcher::isRunning): a job started in between would replace the
+  // watcher's future and its queued finished event, and the result would be lost.
+  bool forecastInFlight_ = false, protInFlight_ = false;
   int sessionGeneration_ = 0, protSession_ = -1; ///< reset() counts sessions
   cb::Date protNight_, protAsOf_;                ///< of the protection under way
   std::string protMethod_;
@@ -106,6 +112,7 @@ private:
   // Threads of their own (one each), so the global pool stays free for Horizon's outlook and
   // store loading: the first screen is not kept waiting behind a queue of forecasts.
   QThreadPool forecastPool_, protectionPool_;
+  QMetaObject::Connection forecastDone_, protectionDone_;
 };
 
 } // namespace cbui

@@ -30,6 +30,8 @@
 #include <cmath>
 #include <deque>
 #include <memory>
+#include <optional>
+#include <tuple>
 
 namespace cbui {
 namespace {
@@ -79,6 +81,9 @@ struct DateStudyPanel::Impl {
   std::string overrideError;
   qint64 nightMicros = 0, methodMicros = 0;
   bool started = false; // background forecasts run once the panel was shown (or asked to)
+  // The protection on screen: night, reading date, method (it does not read the forecast cache,
+  // so a method computed in the background does not make it stale).
+  std::optional<std::tuple<cb::Date, cb::Date, std::string>> shownProtection;
 
   DateStudyJobs *jobs = nullptr;
   QTimer *poll = nullptr;
@@ -122,6 +127,10 @@ struct DateStudyPanel::Impl {
   void requestProtection() {
     if (!model || model->lead() < 1 || !started)
       return;
+    if (shownProtection ==
+        std::make_tuple(model->night(), session->readingDate(), protectionMethod()))
+      return;
+    shownProtection.reset();
     if (!jobs->protecting())
       details->setSegmentsPending(tr("Computing protection…"));
     jobs->requestProtection(model->night(), protectionMethod());
@@ -135,6 +144,7 @@ struct DateStudyPanel::Impl {
       return;
     }
     fillSegments(out);
+    shownProtection = std::make_tuple(out.night, out.asOf, out.method);
   }
 
   void fillSegments(const ProtectionOut &out) {
@@ -417,7 +427,7 @@ DateStudyPanel::DateStudyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) 
   d_->jobs->onCache = [this] { d_->cacheGrew(); };
   d_->jobs->onProtection = [this](const ProtectionOut &out) { d_->protectionFinished(out); };
   connect(d_->cancel, &QPushButton::clicked, this, [this] {
-    d_->jobs->stop();
+    d_->jobs->cancelForecasts(); // the night's protection goes on
     d_->updateProgress();
     d_->status->setText(tr("Cancelled: no forecasts for the methods not computed yet."));
     d_->applyForecast();
@@ -507,6 +517,7 @@ void DateStudyPanel::setSession(WorkbenchSession *session) {
   const bool same = session && session == d_->session && d_->model;
   const cb::Date keep = same ? d_->model->night() : cb::Date();
   d_->jobs->reset(session);
+  d_->shownProtection.reset();
   // Hidden, the forecasts of a new session (another reading date, say) wait until the panel is
   // shown or the main window asks for them (once Horizon has drawn its own), so that the screen
   // in view does not share the cores with work for one out of view.

@@ -71,6 +71,20 @@ private slots:
     QCOMPARE(got.size(), std::size_t(1));
     QCOMPARE(got[0].night, other);
     QVERIFY(got[0].protection.has_value());
+
+    // The panel's Cancel stops the forecasts, not the night's protection.
+    got.clear();
+    const int lead = night - session_->readingDate();
+    jobs.ensure(lead, lead + 7, "pickup-adv");
+    QVERIFY(jobs.forecasting());
+    jobs.requestProtection(night, "pickup-adv");
+    jobs.cancelForecasts();
+    QVERIFY(!jobs.forecasting());
+    QTRY_VERIFY_WITH_TIMEOUT(!jobs.protecting(), 120000);
+    QTest::qWait(50);
+    QCOMPARE(got.size(), std::size_t(1));
+    QCOMPARE(got[0].night, night);
+    QVERIFY(got[0].protection.has_value());
   }
 
   // This year's curve of the model is OTB(s, s − d) of the curve cube (brief §4 definition),
