@@ -130,7 +130,12 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   co.by = request.by;
   co.asOf = request.asOf;
   co.newest = newest;
-  const auto shared = std::make_shared<const CurveCube>(CurveCube::build(reservations, co));
+  const CurveCube *given = request.cube.get();
+  const bool reuse = given && given->by() == co.by && given->firstNight() == co.firstNight &&
+                     given->lastNight() == co.lastNight && given->maxDba() == co.maxDba &&
+                     given->asOf() == request.asOf;
+  const auto shared =
+      reuse ? request.cube : std::make_shared<const CurveCube>(CurveCube::build(reservations, co));
   const CurveCube &cube = *shared;
   std::optional<std::size_t> only;
   if (request.series) {

@@ -70,6 +70,11 @@ struct ForecastRequest {
   /// boundsOf(reservations) when the caller knows them (saves a pass over the reservations);
   /// they must be those of the reservations given.
   std::optional<ReservationBounds> bounds;
+  /// The cube an earlier run over the same reservations kept (ForecastRun::cube): read instead of
+  /// building one when it was built for exactly this run's nights, leads, series kind and
+  /// reading date (a screen flipping through segments at one reading date), else ignored. The
+  /// caller must know that the reservations are the same.
+  std::shared_ptr<const CurveCube> cube;
   unsigned threads = 0; ///< 0 = every core
   /// Auto only: true runs the evidence backtest of every method over every lead at once (the
   /// reference the faster two-part evidence is tested against; see ForecastRun::compute).

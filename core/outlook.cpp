@@ -214,8 +214,10 @@ Outlook computeOutlook(const std::vector<Reservation> &reservations, const Prope
   ForecastRequest request = requestFor(property, sources, options, options.days, SeriesBy::Total);
   request.keepCube = true;
   request.bounds = bounds;
+  request.cube = options.cube;
   const ForecastRun run = ForecastRun::compute(reservations, property, request);
   Outlook out;
+  out.cube = run.cube;
   out.asOf = options.asOf;
   out.method = options.method;
   out.unconstrained = options.unconstrained.value_or(property.settings.unconstrainHistory);

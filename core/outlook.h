@@ -4,12 +4,14 @@
 // class and flags — plus minimum-stay hints and per-segment protection for one night.
 #pragma once
 
+#include "core/curvecube.h"
 #include "core/finding.h"
 #include "core/forecastmethod.h"
 #include "core/protection.h"
 #include "core/seasons.h"
 #include "core/unconstrain.h"
 
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -34,6 +36,8 @@ struct OutlookOptions {
   /// boundsOf(reservations) when the caller knows them (saves passes over the reservations);
   /// they must be those of the reservations given.
   std::optional<ReservationBounds> bounds;
+  /// Outlook::cube of an earlier outlook of the same reservations (see ForecastRequest::cube).
+  std::shared_ptr<const CurveCube> cube;
   unsigned threads = 0;
   ProgressFn progress = nullptr;
   void *progressContext = nullptr;
@@ -77,6 +81,9 @@ struct Outlook {
   std::vector<OutlookNight> nights;
   std::vector<MinStayHint> minStays;
   bool cancelled = false;
+  /// The forecast run's curve cube, for the next outlook of the same reservations at the same
+  /// reading date (OutlookOptions::cube).
+  std::shared_ptr<const CurveCube> cube;
 };
 
 /// Computes the outlook of nights asOf + 1 … asOf + days. D ~ Normal(forecast, sd) with sd the

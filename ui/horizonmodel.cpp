@@ -62,12 +62,14 @@ std::string eventsOn(const std::vector<cb::EventNote> &events, cb::Date night) {
 
 } // namespace
 
-HorizonData computeHorizon(const WorkbenchSession &session, int days, const std::string &segment) {
+HorizonData computeHorizon(const WorkbenchSession &session, int days, const std::string &segment,
+                           std::shared_ptr<const cb::CurveCube> cube) {
   const cb::Property &property = session.property();
   cb::OutlookOptions o;
   o.asOf = session.readingDate();
   o.days = days;
   o.bounds = session.bounds();
+  o.cube = cube;
   HorizonData out;
   out.asOf = toQDate(o.asOf);
   out.segment = qs(segment);
@@ -112,6 +114,7 @@ HorizonData computeHorizon(const WorkbenchSession &session, int days, const std:
     const cb::Outlook outlook = cb::computeOutlook(session.reservations(), property,
                                                    session.censorSources(), session.events(), o);
     out.method = qs(outlook.method);
+    out.cube = outlook.cube;
     for (const cb::OutlookNight &n : outlook.nights) {
       HorizonRow row;
       row.night = toQDate(n.night);
@@ -138,8 +141,11 @@ HorizonData computeHorizon(const WorkbenchSession &session, int days, const std:
 
   cb::ForecastRequest request = segmentRequest(session, o);
   request.series = segment; // this segment's values only, the same as in a run of all of them
+  request.keepCube = true;
+  request.cube = std::move(cube);
   const cb::ForecastRun run = cb::ForecastRun::compute(session.reservations(), property, request);
   out.method = qs(o.method);
+  out.cube = run.cube;
   for (const cb::ForecastValue &v : run.values) {
     if (v.series != segment)
       continue;

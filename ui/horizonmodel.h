@@ -3,11 +3,14 @@
 // (kSortRole), testable without widgets.
 #pragma once
 
+#include "core/curvecube.h"
+
 #include <QAbstractTableModel>
 #include <QDate>
 #include <QString>
 #include <QStringList>
 
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -40,13 +43,19 @@ struct HorizonData {
   QString method;
   QString currency;
   std::vector<HorizonRow> rows;
+  /// The curve cube the forecast read (by segment for a segment, else total): given back to
+  /// computeHorizon for the same session data and reading date, the next segment (or the hotel
+  /// again) skips building it.
+  std::shared_ptr<const cb::CurveCube> cube;
 };
 
 /// The next `days` nights as of the session's reading date: cb::computeOutlook for the hotel;
 /// for a segment its OTB, pickup and STLY from a curve cube by segment and its forecast from a
 /// forecast run by segment (same method and history as the outlook). Thread-safe for a session
-/// not being changed meanwhile. Throws what core throws.
-HorizonData computeHorizon(const WorkbenchSession &session, int days, const std::string &segment);
+/// not being changed meanwhile. `cube`: HorizonData::cube of an earlier call over the same
+/// reservations (used when it fits this call, else ignored). Throws what core throws.
+HorizonData computeHorizon(const WorkbenchSession &session, int days, const std::string &segment,
+                           std::shared_ptr<const cb::CurveCube> cube = {});
 
 class HorizonModel : public QAbstractTableModel {
 public:

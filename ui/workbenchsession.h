@@ -44,6 +44,10 @@ public:
   /// Every reservation of the store, loaded once. Copies of the session share them (and the night
   /// index), so a background job's copy costs nothing at a million reservations.
   const std::vector<cb::Reservation> &reservations() const { return *reservations_; }
+  /// The same pointer for this session and its copies, and for no other data while it is held:
+  /// a screen keeps it beside what it computed from the reservations (a cube, say) to know
+  /// whether that still fits the session it is given later.
+  std::shared_ptr<const void> dataIdentity() const { return reservations_; }
   /// Which reservations cover each stay night (positions in reservations()).
   const cb::NightIndex &nightIndex() const { return *nightIndex_; }
   /// The reservations covering one stay night, in store order: a night's few hundred instead of

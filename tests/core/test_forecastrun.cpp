@@ -236,6 +236,67 @@ TEST(ForecastRun, TwoPartEvidenceGivesExactlyTheOnePartRun) {
 // series: the same values of that series, to the last bit, since each series' evidence,
 // unconstrained history and choices are its own. The simulated sample property by segment, with
 // its denials as censoring, so the unconstraining reads the series' own records.
+// A cube kept by one run is read by the next run that needs exactly that cube (another segment
+// at the same reading date, as Horizon does when the user flips through segments), with the
+// values of a run that builds its own; a cube for another reading date or series kind is
+// ignored.
+TEST(ForecastRun, AKeptCubeIsReadWhenItFitsAndIgnoredOtherwise) {
+  static const cb::SampleProperty sample = cb::simulateProperty();
+  cb::CensorSources censors;
+  censors.denials = sample.denials;
+  cb::ForecastRequest req;
+  req.asOf = sample.readingDate - 20;
+  req.horizon = 30;
+  req.method = "pickup-adv";
+  req.by = cb::SeriesBy::Segment;
+  req.unconstrain = cb::UnconstrainOptions{};
+  req.censoring = &censors;
+  req.keepCube = true;
+  req.series = sample.segments.at(0).code;
+  const cb::ForecastRun first = cb::ForecastRun::compute(sample.reservations, sample.property, req);
+  ASSERT_TRUE(first.cube);
+
+  auto expectSameValues = [](const cb::ForecastRun &a, const cb::ForecastRun &b) {
+    ASSERT_EQ(a.values.size(), b.values.size());
+    ASSERT_FALSE(a.values.empty());
+    for (std::size_t i = 0; i < a.values.size(); ++i) {
+      EXPECT_EQ(a.values[i].series, b.values[i].series);
+      EXPECT_EQ(a.values[i].night, b.values[i].night);
+      EXPECT_EQ(a.values[i].otb, b.values[i].otb);
+      EXPECT_EQ(a.values[i].forecast, b.values[i].forecast);
+      EXPECT_EQ(a.values[i].lo, b.values[i].lo);
+      EXPECT_EQ(a.values[i].hi, b.values[i].hi);
+      EXPECT_EQ(a.values[i].sd, b.values[i].sd);
+    }
+  };
+
+  cb::ForecastRequest next = req;
+  next.series = sample.segments.at(1).code;
+  const cb::ForecastRun own = cb::ForecastRun::compute(sample.reservations, sample.property, next);
+  next.cube = first.cube;
+  const cb::ForecastRun read = cb::ForecastRun::compute(sample.reservations, sample.property, next);
+  EXPECT_EQ(read.cube.get(), first.cube.get()); // read, not built again
+  expectSameValues(read, own);
+
+  for (int variant = 0; variant < 3; ++variant) {
+    cb::ForecastRequest other = next;
+    if (variant == 0)
+      other.asOf = next.asOf - 1; // another reading date
+    else if (variant == 1)
+      other.horizon = next.horizon + 1; // other nights and leads
+    else {
+      other.by = cb::SeriesBy::Total; // another kind of series
+      other.series = "ALL";
+    }
+    const cb::ForecastRun ignored =
+        cb::ForecastRun::compute(sample.reservations, sample.property, other);
+    EXPECT_NE(ignored.cube.get(), first.cube.get()) << variant;
+    other.cube.reset();
+    expectSameValues(ignored,
+                     cb::ForecastRun::compute(sample.reservations, sample.property, other));
+  }
+}
+
 TEST(ForecastRun, OneSeriesGivesItsValuesFromTheRunOfEverySeries) {
   static const cb::SampleProperty sample = cb::simulateProperty();
   cb::CensorSources censors;

@@ -256,6 +256,20 @@ TEST(Outlook, SamplePropertyIdentitiesEveryNight) {
   }
   EXPECT_EQ(withSd, 90); // every lead bucket has backtest errors on three years of history
   EXPECT_GT(sellouts, 0) << "the sample has sold-out nights in its first 90 nights";
+
+  // The outlook again with the first one's cube: the cube is read, every figure the same.
+  ASSERT_TRUE(ol.cube);
+  o.cube = ol.cube;
+  const cb::Outlook again = cb::computeOutlook(s.reservations, s.property, sources, s.events, o);
+  EXPECT_EQ(again.cube.get(), ol.cube.get());
+  ASSERT_EQ(again.nights.size(), ol.nights.size());
+  for (std::size_t i = 0; i < ol.nights.size(); ++i) {
+    EXPECT_EQ(again.nights[i].night, ol.nights[i].night);
+    EXPECT_EQ(again.nights[i].forecast, ol.nights[i].forecast);
+    EXPECT_EQ(again.nights[i].constrained, ol.nights[i].constrained);
+    EXPECT_EQ(again.nights[i].adr, ol.nights[i].adr);
+    EXPECT_EQ(again.nights[i].stlyOtb, ol.nights[i].stlyOtb);
+  }
 }
 
 TEST(ProtectNight, SteadyQuarterReproducesProtectInputs) {

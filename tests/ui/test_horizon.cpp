@@ -172,6 +172,30 @@ private slots:
                 .data(Qt::ToolTipRole)
                 .toString()
                 .contains(QStringLiteral("Hotel-level")));
+
+    // Another segment given this one's cube reads it and shows what a fresh computation shows;
+    // the hotel's outlook given a segment cube builds its own.
+    QVERIFY(seg.cube);
+    QCOMPARE(seg.cube->by(), cb::SeriesBy::Segment);
+    std::string other;
+    for (const auto &[c, rooms] : bySegment)
+      if (c != code && rooms > 0)
+        other = c;
+    QVERIFY(!other.empty());
+    const cbui::HorizonData fresh = cbui::computeHorizon(*session_, 30, other);
+    const cbui::HorizonData reused = cbui::computeHorizon(*session_, 30, other, seg.cube);
+    QCOMPARE(reused.cube.get(), seg.cube.get());
+    QCOMPARE(reused.rows.size(), fresh.rows.size());
+    for (std::size_t i = 0; i < fresh.rows.size(); ++i) {
+      QCOMPARE(reused.rows[i].otb, fresh.rows[i].otb);
+      QCOMPARE(reused.rows[i].forecast, fresh.rows[i].forecast);
+      QCOMPARE(reused.rows[i].lo, fresh.rows[i].lo);
+      QCOMPARE(reused.rows[i].hi, fresh.rows[i].hi);
+    }
+    const cbui::HorizonData hotel = cbui::computeHorizon(*session_, 30, {}, seg.cube);
+    QVERIFY(hotel.cube && hotel.cube.get() != seg.cube.get());
+    for (std::size_t i = 0; i < hotel.rows.size(); ++i)
+      QCOMPARE(hotel.rows[i].forecast, total.rows[i].forecast);
   }
 };
 
