@@ -305,6 +305,30 @@ void BM_HorizonSegment1M(benchmark::State &state) {
   }
 }
 
+// The same with the cube by segment an earlier segment's run kept (Horizon, the user flipping
+// through segments at one reading date).
+void BM_HorizonSegmentKeptCube1M(benchmark::State &state) {
+  const DataSet &set = millionBookings();
+  cb::ForecastRequest r;
+  r.asOf = cb::millionBookingConfig().readingDate;
+  r.horizon = 90;
+  r.method = "pickup-adv";
+  r.by = cb::SeriesBy::Segment;
+  r.series = millionExtras().segment;
+  r.unconstrain = cb::UnconstrainOptions{};
+  r.censoring = &millionExtras().sources;
+  r.bounds = cb::boundsOf(set.reservations);
+  r.keepCube = true;
+  r.cube = cb::ForecastRun::compute(set.reservations, millionExtras().property, r).cube;
+  for (auto _ : state) {
+    const cb::ForecastRun run =
+        cb::ForecastRun::compute(set.reservations, millionExtras().property, r);
+    if (run.cube != r.cube)
+      state.SkipWithError("the kept cube was not read");
+    benchmark::DoNotOptimize(run.values.data());
+  }
+}
+
 BENCHMARK(BM_LoadSampleStore)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_ParseCsv1M)->Unit(benchmark::kMillisecond)->Iterations(3);
 BENCHMARK(BM_LoadStore1MSnapshot)->Unit(benchmark::kMillisecond)->Iterations(5);
@@ -317,5 +341,6 @@ BENCHMARK(BM_Cube1MTotal)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_Cube1MBySegment)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_HorizonOutlook1M)->Unit(benchmark::kMillisecond)->Iterations(5);
 BENCHMARK(BM_HorizonSegment1M)->Unit(benchmark::kMillisecond)->Iterations(5);
+BENCHMARK(BM_HorizonSegmentKeptCube1M)->Unit(benchmark::kMillisecond)->Iterations(5);
 
 BENCHMARK_MAIN();
