@@ -172,7 +172,7 @@ TEST(FiniteNumbers, PropertyWithNoRooms) {
   one.otbRevenue = 200;
   one.forecast = 3;
   cb::fillCapacityFigures(one, 110.0);
-  checkOutlook(cb::Outlook{{}, "", true, {bare, one}, {}, false}, check);
+  checkOutlook(cb::Outlook{{}, "", true, {bare, one}, {}, false, nullptr}, check);
   checkPace(pricedQuarter(), p, cb::SeriesBy::Total, check);
   checkBacktest(pricedQuarter(), p, cb::SeriesBy::Total, check);
   EXPECT_GT(check.checked, 300);
