@@ -287,8 +287,8 @@ void BM_HorizonOutlook1M(benchmark::State &state) {
   }
 }
 
-void BM_HorizonSegment1M(benchmark::State &state) {
-  const DataSet &set = millionBookings();
+// What Horizon asks for one segment: 90 nights, pickup-adv, unconstrained history.
+static cb::ForecastRequest horizonSegmentRequest(const DataSet &set) {
   cb::ForecastRequest r;
   r.asOf = cb::millionBookingConfig().readingDate;
   r.horizon = 90;
@@ -298,6 +298,12 @@ void BM_HorizonSegment1M(benchmark::State &state) {
   r.unconstrain = cb::UnconstrainOptions{};
   r.censoring = &millionExtras().sources;
   r.bounds = cb::boundsOf(set.reservations);
+  return r;
+}
+
+void BM_HorizonSegment1M(benchmark::State &state) {
+  const DataSet &set = millionBookings();
+  cb::ForecastRequest r = horizonSegmentRequest(set);
   for (auto _ : state) {
     const cb::ForecastRun run =
         cb::ForecastRun::compute(set.reservations, millionExtras().property, r);
@@ -309,15 +315,7 @@ void BM_HorizonSegment1M(benchmark::State &state) {
 // through segments at one reading date).
 void BM_HorizonSegmentKeptCube1M(benchmark::State &state) {
   const DataSet &set = millionBookings();
-  cb::ForecastRequest r;
-  r.asOf = cb::millionBookingConfig().readingDate;
-  r.horizon = 90;
-  r.method = "pickup-adv";
-  r.by = cb::SeriesBy::Segment;
-  r.series = millionExtras().segment;
-  r.unconstrain = cb::UnconstrainOptions{};
-  r.censoring = &millionExtras().sources;
-  r.bounds = cb::boundsOf(set.reservations);
+  cb::ForecastRequest r = horizonSegmentRequest(set);
   r.keepCube = true;
   r.cube = cb::ForecastRun::compute(set.reservations, millionExtras().property, r).cube;
   for (auto _ : state) {

@@ -232,10 +232,20 @@ TEST(ForecastRun, TwoPartEvidenceGivesExactlyTheOnePartRun) {
   EXPECT_EQ(fast.parameters, slow.parameters); // the evidence of every choice, as stored
 }
 
-// A run of one series (what Horizon asks for when a segment is picked) against the run of every
-// series: the same values of that series, to the last bit, since each series' evidence,
-// unconstrained history and choices are its own. The simulated sample property by segment, with
-// its denials as censoring, so the unconstraining reads the series' own records.
+// The simulated sample property by segment, pickup-adv on unconstrained history with its
+// denials as censoring, 30 nights from 20 days before its reading date.
+static cb::ForecastRequest sampleSegmentRequest(const cb::SampleProperty &sample,
+                                                const cb::CensorSources &censors) {
+  cb::ForecastRequest req;
+  req.asOf = sample.readingDate - 20;
+  req.horizon = 30;
+  req.method = "pickup-adv";
+  req.by = cb::SeriesBy::Segment;
+  req.unconstrain = cb::UnconstrainOptions{};
+  req.censoring = &censors;
+  return req;
+}
+
 // A cube kept by one run is read by the next run that needs exactly that cube (another segment
 // at the same reading date, as Horizon does when the user flips through segments), with the
 // values of a run that builds its own; a cube for another reading date or series kind is
@@ -244,13 +254,7 @@ TEST(ForecastRun, AKeptCubeIsReadWhenItFitsAndIgnoredOtherwise) {
   static const cb::SampleProperty sample = cb::simulateProperty();
   cb::CensorSources censors;
   censors.denials = sample.denials;
-  cb::ForecastRequest req;
-  req.asOf = sample.readingDate - 20;
-  req.horizon = 30;
-  req.method = "pickup-adv";
-  req.by = cb::SeriesBy::Segment;
-  req.unconstrain = cb::UnconstrainOptions{};
-  req.censoring = &censors;
+  cb::ForecastRequest req = sampleSegmentRequest(sample, censors);
   req.keepCube = true;
   req.series = sample.segments.at(0).code;
   const cb::ForecastRun first = cb::ForecastRun::compute(sample.reservations, sample.property, req);
@@ -297,17 +301,15 @@ TEST(ForecastRun, AKeptCubeIsReadWhenItFitsAndIgnoredOtherwise) {
   }
 }
 
+// A run of one series (what Horizon asks for when a segment is picked) against the run of every
+// series: the same values of that series, to the last bit, since each series' evidence,
+// unconstrained history and choices are its own. The simulated sample property by segment, with
+// its denials as censoring, so the unconstraining reads the series' own records.
 TEST(ForecastRun, OneSeriesGivesItsValuesFromTheRunOfEverySeries) {
   static const cb::SampleProperty sample = cb::simulateProperty();
   cb::CensorSources censors;
   censors.denials = sample.denials;
-  cb::ForecastRequest req;
-  req.asOf = sample.readingDate - 20;
-  req.horizon = 30;
-  req.method = "pickup-adv";
-  req.by = cb::SeriesBy::Segment;
-  req.unconstrain = cb::UnconstrainOptions{};
-  req.censoring = &censors;
+  const cb::ForecastRequest req = sampleSegmentRequest(sample, censors);
   const cb::ForecastRun all = cb::ForecastRun::compute(sample.reservations, sample.property, req);
   std::set<std::string> names;
   for (const cb::ForecastValue &v : all.values)
