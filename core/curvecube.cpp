@@ -143,10 +143,17 @@ std::optional<SeriesBy> parseSeriesBy(std::string_view name) {
   return std::nullopt;
 }
 
+namespace {
+/// The reservation's last activity: its booking or its cancellation.
+Date lastActivity(const Reservation &r) {
+  return r.cancelledOn ? std::max(r.bookedOn, *r.cancelledOn) : r.bookedOn;
+}
+} // namespace
+
 std::optional<Date> newestActivity(const std::vector<Reservation> &reservations) {
   std::optional<Date> newest;
   for (const auto &r : reservations) {
-    Date d = r.cancelledOn ? std::max(r.bookedOn, *r.cancelledOn) : r.bookedOn;
+    const Date d = lastActivity(r);
     if (!newest || d > *newest)
       newest = d;
   }
@@ -156,7 +163,7 @@ std::optional<Date> newestActivity(const std::vector<Reservation> &reservations)
 ReservationBounds boundsOf(const std::vector<Reservation> &reservations) {
   ReservationBounds b;
   for (const Reservation &r : reservations) {
-    const Date d = r.cancelledOn ? std::max(r.bookedOn, *r.cancelledOn) : r.bookedOn;
+    const Date d = lastActivity(r);
     if (!b.newest || d > *b.newest)
       b.newest = d;
     if (!b.firstArrival || r.arrival < *b.firstArrival)

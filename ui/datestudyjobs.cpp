@@ -52,7 +52,7 @@ DateStudyJobs::~DateStudyJobs() {
 }
 
 void DateStudyJobs::reset(WorkbenchSession *session) {
-  abandonForecasts();
+  cancelForecasts();
   cancelProtection();
   pendingProt_.reset();
   ++sessionGeneration_;
@@ -60,7 +60,7 @@ void DateStudyJobs::reset(WorkbenchSession *session) {
   session_ = session;
 }
 
-void DateStudyJobs::abandonForecasts() {
+void DateStudyJobs::cancelForecasts() {
   if (progress_)
     progress_->cancel = true;
   ++generation_;
@@ -75,7 +75,7 @@ void DateStudyJobs::cancelProtection() {
 }
 
 void DateStudyJobs::stop() {
-  abandonForecasts();
+  cancelForecasts();
   cancelProtection();
   pendingProt_.reset();
   for (auto &f : running_)
@@ -98,7 +98,7 @@ void DateStudyJobs::ensure(int lead, int horizon, const std::string &first) {
     return;
   // The job under way ends at its next reading date; the next one starts after it. A protection
   // for another reading date is of no use any more; one for this date goes on.
-  abandonForecasts();
+  cancelForecasts();
   if (protInFlight_ && protAsOf_ != asOf)
     cancelProtection();
   cache_.reset();
@@ -211,17 +211,16 @@ void DateStudyJobs::requestProtection(cb::Date night, const std::string &method)
 }
 
 void DateStudyJobs::protectionEnded() {
-  protInFlight_ = false;
-  std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
   // A cancelled job, or one for an earlier session, ends without a result: the screen would show
   // "cancelled", or the figures of data no longer loaded, as if they were current.
+  const bool current = protCurrentRunning();
+  protInFlight_ = false;
+  std::erase_if(protRunning_, [](const QFuture<ProtectionOut> &f) { return f.isFinished(); });
   std::optional<ProtectionOut> out;
-  if (protSession_ == sessionGeneration_ && protCancel_ && !*protCancel_ &&
-      protWatcher_->future().resultCount() > 0)
+  if (current && protWatcher_->future().resultCount() > 0)
     out = protWatcher_->result();
   if (pendingProt_ && session_) {
-    const auto [night, method] = *pendingProt_;
-    pendingProt_.reset();
+    const auto [night, method] = *pendingProt_; // a copy: startProtection clears it
     startProtection(night, method);
   }
   if (onBusyChanged)

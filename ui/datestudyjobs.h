@@ -44,9 +44,9 @@ public:
   void reset(WorkbenchSession *session);
   /// Cancels and waits for everything running (the cache stays). Blocks: for the destructor.
   void stop();
-  /// Cancels the forecasts under way and queued without waiting (the cache stays; the
-  /// protection goes on).
-  void cancelForecasts() { abandonForecasts(); }
+  /// Cancels the forecast under way and empties the queue without waiting (the cache stays, the
+  /// protection goes on; the futures are kept for stop()).
+  void cancelForecasts();
   /// Starts the forecasts of every fast method for the session's reading date, up to `horizon`
   /// nights, `first` first — unless the cache or the work under way already reaches `lead`.
   void ensure(int lead, int horizon, const std::string &first);
@@ -76,9 +76,6 @@ public:
   std::function<void()> onBusyChanged;                     ///< start or end of work
 
 private:
-  /// Cancels the forecast under way and empties the queue, without waiting (the futures are kept
-  /// for stop()).
-  void abandonForecasts();
   /// Cancels the protection under way without waiting; its result will not be delivered.
   void cancelProtection();
   bool protCurrentRunning() const {
