@@ -203,10 +203,12 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
   // Series: the total, then one per code among the rows known at the reading date (so the list
   // itself does not depend on anything dated later).
   c.series_ = {"ALL"};
+  c.firstBooked_ = {Date()};
   std::vector<std::int32_t> splitOf; // per reservation: its series index, or -1 when not known
   if (c.by_ != SeriesBy::Total) {
     std::unordered_map<std::string_view, std::int32_t> ids;
     std::vector<std::string_view> codes;
+    std::vector<Date> firstBooked;
     splitOf.assign(reservations.size(), -1);
     std::string_view lastCode;
     std::int32_t lastId = -1;
@@ -217,12 +219,16 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
       std::string_view code = codeOf(r, c.by_);
       if (lastId < 0 || code != lastCode) {
         auto [it, added] = ids.try_emplace(code, static_cast<std::int32_t>(codes.size()));
-        if (added)
+        if (added) {
           codes.push_back(code);
+          firstBooked.push_back(r.bookedOn);
+        }
         lastCode = code;
         lastId = it->second;
       }
       splitOf[i] = lastId;
+      Date &earliest = firstBooked[static_cast<std::size_t>(lastId)];
+      earliest = std::min(earliest, r.bookedOn);
     }
     std::vector<std::int32_t> order(codes.size());
     for (std::size_t k = 0; k < order.size(); ++k)
@@ -235,6 +241,7 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
       rank[static_cast<std::size_t>(order[k])] = static_cast<std::int32_t>(k + 1);
       std::string_view code = codes[static_cast<std::size_t>(order[k])];
       c.series_.push_back(code.empty() ? std::string("(none)") : std::string(code));
+      c.firstBooked_.push_back(firstBooked[static_cast<std::size_t>(order[k])]);
     }
     for (auto &s : splitOf)
       if (s >= 0)
@@ -276,8 +283,10 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
       const int lo = std::max({0, s - asOfNight, s - st.cancelled + 1});
       const int hi = std::min(maxDba, s - st.booked);
       const std::size_t night = static_cast<std::size_t>(s);
-      if (st.noShow && s <= asOfNight)
+      if (st.noShow && s <= asOfNight) {
         c.noShow_[series * nights + night] += st.rooms;
+        c.lateNoShow_ = c.lateNoShow_ || st.booked > s;
+      }
       if (lo > hi)
         continue;
       const std::size_t row = series * perSeries + night * stride;
@@ -307,6 +316,56 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
     for (std::size_t k = 0; k < n; ++k)
       c.noShow_[k] += c.noShow_[s * n + k];
   }
+  return c;
+}
+
+bool CurveCube::canNarrowTo(const CubeOptions &o) const {
+  return o.asOf && *o.asOf <= asOf_ && o.by == by_ && o.firstNight == first_ &&
+         o.lastNight >= first_ && o.lastNight <= last_ && o.maxDba == maxDba_ && !lateNoShow_;
+}
+
+CurveCube CurveCube::narrowed(const CubeOptions &o) const {
+  if (!canNarrowTo(o))
+    throw std::invalid_argument("this curve cube cannot give the one asked for: another series "
+                                "kind, first night or lead range, or a later night or date");
+  CurveCube c;
+  c.first_ = first_;
+  c.last_ = o.lastNight;
+  c.asOf_ = *o.asOf;
+  c.nights_ = c.last_ - c.first_ + 1;
+  c.maxDba_ = maxDba_;
+  c.by_ = by_;
+  c.lateNoShow_ = false;
+  std::vector<std::size_t> from; // the source series of each series kept, in order
+  for (std::size_t k = 0; k < series_.size(); ++k)
+    if (k == 0 || firstBooked_[k] <= c.asOf_) {
+      from.push_back(k);
+      c.series_.push_back(series_[k]);
+      c.firstBooked_.push_back(firstBooked_[k]);
+    }
+  const std::size_t stride = static_cast<std::size_t>(maxDba_) + 1;
+  const std::size_t nights = static_cast<std::size_t>(c.nights_);
+  const std::size_t srcNights = static_cast<std::size_t>(nights_);
+  c.rooms_.resize(nights * stride * from.size());
+  c.revenue_.resize(c.rooms_.size());
+  c.noShow_.assign(nights * from.size(), 0);
+  const int asOfNight = c.asOf_ - first_;
+  for (std::size_t j = 0; j < from.size(); ++j)
+    for (std::size_t n = 0; n < nights; ++n) {
+      const std::size_t src = (from[j] * srcNights + n) * stride;
+      const std::size_t dst = (j * nights + n) * stride;
+      // Cells d < s − asOf are read after the reading date: unknown, so 0 as build() leaves them.
+      const std::size_t lo = static_cast<std::size_t>(
+          std::clamp(static_cast<int>(n) - asOfNight, 0, static_cast<int>(stride)));
+      std::fill_n(c.rooms_.begin() + static_cast<std::ptrdiff_t>(dst), lo, 0);
+      std::fill_n(c.revenue_.begin() + static_cast<std::ptrdiff_t>(dst), lo, 0);
+      std::copy_n(rooms_.begin() + static_cast<std::ptrdiff_t>(src + lo), stride - lo,
+                  c.rooms_.begin() + static_cast<std::ptrdiff_t>(dst + lo));
+      std::copy_n(revenue_.begin() + static_cast<std::ptrdiff_t>(src + lo), stride - lo,
+                  c.revenue_.begin() + static_cast<std::ptrdiff_t>(dst + lo));
+      if (static_cast<int>(n) <= asOfNight)
+        c.noShow_[j * nights + n] = noShow_[from[j] * srcNights + n];
+    }
   return c;
 }
 

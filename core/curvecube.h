@@ -64,6 +64,21 @@ public:
   /// `cube.otbRooms(*cube.seriesIndex("CORP"), night, 14)` = corporate rooms 14 days out.
   static CurveCube build(const std::vector<Reservation> &reservations, const CubeOptions &options);
 
+  /// True when narrowed(options) gives the cube build() would give for `options` from the
+  /// reservations this cube was built from: the same series kind, first night and leads, a last
+  /// night and a reading date (options.asOf, which must be set) no later than this cube's.
+  bool canNarrowTo(const CubeOptions &options) const;
+  /// The options this cube was built with (its nights, leads, series kind and reading date).
+  CubeOptions options() const { return {first_, last_, maxDba_, by_, asOf_}; }
+  /// The cube build(reservations, options) gives (requires canNarrowTo(options), else
+  /// std::invalid_argument), made from this cube's cells instead of the reservations: a cell read
+  /// on or before the earlier reading date counts the same rows in both cubes (a row booked or
+  /// cancelled later reaches only cells read later), the cells read after it become unknown (0),
+  /// and a split keeps the series booked by then. A screen that moves the reading date back keeps
+  /// one cube as of the newest date and narrows it: a copy of the cells instead of a pass over
+  /// every reservation.
+  CurveCube narrowed(const CubeOptions &options) const;
+
   Date firstNight() const { return first_; }
   Date lastNight() const { return last_; }
   int nights() const { return nights_; }
@@ -108,6 +123,12 @@ private:
   int nights_ = 0, maxDba_ = 0;
   SeriesBy by_ = SeriesBy::Total;
   std::vector<std::string> series_;
+  /// Per series, the earliest booked_on among its rows (for narrowed(); unused for "ALL").
+  std::vector<Date> firstBooked_;
+  /// A no-show row booked after a night it covers (invalid data, but build() takes it): its
+  /// no-show rooms count for that night only from its booking date on, which the cells do not
+  /// record, so such a cube is not narrowed.
+  bool lateNoShow_ = false;
   /// Where the large arrays live (see curvecube.cpp: large blocks on huge pages).
   static std::pmr::memory_resource *bigBlocks();
   std::pmr::vector<std::int32_t> rooms_{bigBlocks()};   ///< [series][night][dba]

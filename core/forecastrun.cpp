@@ -134,8 +134,10 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   const bool reuse = given && given->by() == co.by && given->firstNight() == co.firstNight &&
                      given->lastNight() == co.lastNight && given->maxDba() == co.maxDba &&
                      given->asOf() == request.asOf;
-  const auto shared =
-      reuse ? request.cube : std::make_shared<const CurveCube>(CurveCube::build(reservations, co));
+  const auto shared = reuse ? request.cube
+                      : given && given->canNarrowTo(co)
+                          ? std::make_shared<const CurveCube>(given->narrowed(co))
+                          : std::make_shared<const CurveCube>(CurveCube::build(reservations, co));
   const CurveCube &cube = *shared;
   std::optional<std::size_t> only;
   if (request.series) {

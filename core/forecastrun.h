@@ -72,8 +72,10 @@ struct ForecastRequest {
   std::optional<ReservationBounds> bounds;
   /// The cube an earlier run over the same reservations kept (ForecastRun::cube): read instead of
   /// building one when it was built for exactly this run's nights, leads, series kind and
-  /// reading date (a screen flipping through segments at one reading date), else ignored. The
-  /// caller must know that the reservations are the same.
+  /// reading date (a screen flipping through segments at one reading date); narrowed to this
+  /// run's (CurveCube::narrowed) when it was built for the same first night, leads and series
+  /// kind at a later reading date and reaches this run's last night (a screen moving the
+  /// reading date back); else ignored. The caller must know that the reservations are the same.
   std::shared_ptr<const CurveCube> cube;
   unsigned threads = 0; ///< 0 = every core
   /// Auto only: true runs the evidence backtest of every method over every lead at once (the

@@ -5,9 +5,11 @@
 # Markdown table; then the same work by the independent pandas pipeline (bench/pandas_pipeline.py)
 # and the speed ratios. Nothing is asserted.
 #
-# Usage: scripts/bench-scale.sh [--runs N] [--size 1m|sample] [--build DIR] [--skip-slow]
+# Usage: scripts/bench-scale.sh [--runs N] [--size 1m|sample|open] [--build DIR] [--skip-slow]
 #   --runs N      runs per step (default 3)
-#   --size S      1m (default) or sample (the 55,000-row sample property, for a quick try)
+#   --size S      1m (default), sample (the 55,000-row sample property) or open (the open city
+#                 dataset, ../shared/data/open/hotel_bookings_city.csv, 79,330 rows, imported
+#                 with its mapping profile; pandas reads it with --format open-data)
 #   --build DIR   a configured build folder (default build/, the README's RelWithDebInfo build)
 #   --skip-slow   leave out forecast --method auto and the backtest of every method
 # Needs /usr/bin/time and Debian's python3-pandas (scripts/install-deps.sh installs both).
@@ -29,14 +31,23 @@ cli="$build/app/curvebench"
 work="$(mktemp -d)"
 trap 'rm -rf "$work"' EXIT
 
-"$cli" sample "$work/files" --size "$size" >/dev/null
-csv="$work/files/reservations.csv"
+# importArgs: what `curvebench import` needs besides the store and the file; pdFormat: how the
+# pandas pipeline reads the file.
+if [[ $size == open ]]; then
+  # Nuno Antonio, Ana de Almeida, Luis Nunes, "Hotel booking demand datasets", Data in Brief 22
+  # (2019) 41-49, doi:10.1016/j.dib.2018.11.126, CC BY 4.0. Capacity 235 as in the README's
+  # example (the most rooms any night of the file holds is below it).
+  csv="${CURVEBENCH_SHARED_DIR:-$root/../shared}/data/open/hotel_bookings_city.csv"
+  [[ -f $csv ]] || { echo "the open dataset is not at $csv (set CURVEBENCH_SHARED_DIR)" >&2; exit 2; }
+  capacity=235 importArgs=(--profile hotel-bookings-open-data) pdFormat=open-data
+else
+  "$cli" sample "$work/files" --size "$size" >/dev/null
+  csv="$work/files/reservations.csv"
+  capacity=$(/usr/bin/python3 -c 'import json,sys; print(json.load(open(sys.argv[1]))["capacity"])' \
+    "$work/files/property.json")
+  importArgs=() pdFormat=native
+fi
 rows=$(($(wc -l <"$csv") - 1))
-capacity=$(/usr/bin/python3 -c 'import json,sys; print(json.load(open(sys.argv[1]))["capacity"])' \
-  "$work/files/property.json")
-# One year of reading dates ending at the data's reading date, and the nights after it.
-asof=$(tail -n +2 "$csv" | cut -d, -f3,4 | tr ',' '\n' | grep -v '^$' | sort | tail -1)
-from=$(date -d "$asof - 364 days" +%F)
 
 # Runs "$@" RUNS times; prints "median_seconds max_rss_mb". PREP (a function name or :) runs
 # before each run, untimed.
@@ -61,15 +72,22 @@ row() { printf '| %s | %s s | %s MB |\n' "$1" "$2" "$3"; }
 
 fresh() { rm -f "$work/s.curvebench"*; "$cli" init "$work/s.curvebench" --name Bench --capacity "$capacity" >/dev/null; }
 store="$work/s.curvebench"
+# One year of reading dates ending at the data's reading date (the newest booking or
+# cancellation, as the store reports it), and the nights after it.
+fresh
+"$cli" import "$store" "$csv" "${importArgs[@]}" >/dev/null
+asof=$("$cli" info "$store" | awk '/^Data as of/ {print $4}')
+[[ $asof =~ ^[0-9]{4}-[0-9]{2}-[0-9]{2}$ ]] || { echo "no reading date in the store" >&2; exit 1; }
+from=$(date -d "$asof - 364 days" +%F)
 
 echo "Curvebench on $size: $(echo "$rows" | sed ':a;s/\B[0-9]\{3\}\>/,&/;ta') reservations, reading date $asof," \
   "$runs runs per step (median wall time, largest peak RSS); $(nproc) cores, $(date +%F)"
 echo
 echo "| step | time | peak RSS |"
 echo "|---|---|---|"
-read -r t m < <(measure fresh "$cli" import "$store" "$csv"); row "import into a new store" "$t" "$m"
+read -r t m < <(measure fresh "$cli" import "$store" "$csv" "${importArgs[@]}"); row "import into a new store" "$t" "$m"
 importT=$t
-read -r t m < <(measure : "$cli" import "$store" "$csv"); row "re-import of the unchanged file" "$t" "$m"
+read -r t m < <(measure : "$cli" import "$store" "$csv" "${importArgs[@]}"); row "re-import of the unchanged file" "$t" "$m"
 read -r t m < <(measure : "$cli" info "$store"); row "open the store, summary (info)" "$t" "$m"
 # An import writes or updates the snapshot beside the store (core/reservationsnapshot.h), so
 # reads use it. Without one (deleted, or a store from an older Curvebench) the first read goes to
@@ -80,24 +98,27 @@ row "curves, total, with no snapshot (reads the table, writes the snapshot)" "$t
 read -r t m < <(measure : "$cli" curves "$store" --out "$work/curves.csv")
 row "curves, total, to CSV (load store, cube, write)" "$t" "$m"
 curvesT=$t
-# A daily extract: the rows booked or cancelled on the last day, each with its rate changed (a
-# different change each run, so every run writes them all).
-daily="$work/daily.csv"
-dailyRun=0
-dailyExtract() {
-  dailyRun=$((dailyRun + 1))
-  head -1 "$csv" >"$daily"
-  awk -F, -v d="$asof" -v k="$dailyRun" 'BEGIN {OFS = ","} NR > 1 && ($3 == d || $4 == d) {
-    $11 = $11 + k; print }' "$csv" >>"$daily"
-}
-dailyExtract
-dailyRows=$(($(wc -l <"$daily") - 1))
-read -r t m < <(measure dailyExtract "$cli" import "$store" "$daily")
-row "import of a daily extract ($dailyRows changed rows; updates the snapshot)" "$t" "$m"
-printf '#!/usr/bin/env bash\nset -e\n"%s" import "%s" "%s" >/dev/null\n"%s" curves "%s" --out "%s"\n' \
-  "$cli" "$store" "$daily" "$cli" "$store" "$work/curves-daily.csv" >"$work/daily-then-curves.sh"
-read -r t m < <(measure dailyExtract bash "$work/daily-then-curves.sh")
-row "the same import, then curves" "$t" "$m"
+# (The open dataset has no daily extracts: its rows are in another layout.)
+if [[ $size != open ]]; then
+  # A daily extract: the rows booked or cancelled on the last day, each with its rate changed (a
+  # different change each run, so every run writes them all).
+  daily="$work/daily.csv"
+  dailyRun=0
+  dailyExtract() {
+    dailyRun=$((dailyRun + 1))
+    head -1 "$csv" >"$daily"
+    awk -F, -v d="$asof" -v k="$dailyRun" 'BEGIN {OFS = ","} NR > 1 && ($3 == d || $4 == d) {
+      $11 = $11 + k; print }' "$csv" >>"$daily"
+  }
+  dailyExtract
+  dailyRows=$(($(wc -l <"$daily") - 1))
+  read -r t m < <(measure dailyExtract "$cli" import "$store" "$daily")
+  row "import of a daily extract ($dailyRows changed rows; updates the snapshot)" "$t" "$m"
+  printf '#!/usr/bin/env bash\nset -e\n"%s" import "%s" "%s" >/dev/null\n"%s" curves "%s" --out "%s"\n' \
+    "$cli" "$store" "$daily" "$cli" "$store" "$work/curves-daily.csv" >"$work/daily-then-curves.sh"
+  read -r t m < <(measure dailyExtract bash "$work/daily-then-curves.sh")
+  row "the same import, then curves" "$t" "$m"
+fi
 read -r t m < <(measure : "$cli" curves "$store" --by segment --out "$work/curves-seg.csv")
 row "curves by segment to CSV" "$t" "$m"
 read -r t m < <(measure : "$cli" pace "$store" --as-of "$asof" --days 365); row "pace, 365 nights" "$t" "$m"
@@ -123,7 +144,7 @@ echo
 echo "| work | Curvebench | pandas | ratio |"
 echo "|---|---|---|---|"
 py=(/usr/bin/python3 "$root/bench/pandas_pipeline.py")
-read -r pe pm < <(measure : "${py[@]}" --format native "$csv" --from "$from" --to "$asof" \
+read -r pe pm < <(measure : "${py[@]}" --format "$pdFormat" "$csv" --from "$from" --to "$asof" \
   --curves-out "$work/pd-curves.csv" --save-cache "$work/pd.pkl")
 read -r pr prm < <(measure : "${py[@]}" --from-cache "$work/pd.pkl" --from "$from" --to "$asof" \
   --curves-out "$work/pd-curves.csv")

@@ -266,8 +266,14 @@ void HorizonPanel::setSession(WorkbenchSession *session) {
       return;
     }
     auto &result = std::get<HorizonData>(r);
-    if (result.cube)
-      (result.segment.isEmpty() ? d_->totalCube : d_->segmentCube) = result.cube;
+    if (result.cube) {
+      // The cube of the later reading date is kept while it can give this one's: moving the
+      // reading date back narrows it (CurveCube::narrowed), moving forward to it reads it as is.
+      auto &kept = result.segment.isEmpty() ? d_->totalCube : d_->segmentCube;
+      if (!kept || kept->asOf() <= result.cube->asOf() ||
+          !kept->canNarrowTo(result.cube->options()))
+        kept = result.cube;
+    }
     d_->chart->showHorizon(result);
     QString what = QStringLiteral("As of %1 · %2 nights · forecast method %3")
                        .arg(QLocale().toString(result.asOf, QStringLiteral("ddd d MMM yyyy")))

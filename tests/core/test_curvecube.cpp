@@ -369,6 +369,96 @@ TEST(CurveCube, AsOfIgnoresEverythingDatedLater) {
   }
 }
 
+namespace {
+
+/// Every cell, known or not, and the finals and actuals of the two cubes are the same.
+void expectSameCube(const CurveCube &a, const CurveCube &b) {
+  ASSERT_EQ(a.series(), b.series());
+  ASSERT_EQ(a.asOf(), b.asOf());
+  ASSERT_EQ(a.firstNight(), b.firstNight());
+  ASSERT_EQ(a.lastNight(), b.lastNight());
+  ASSERT_EQ(a.maxDba(), b.maxDba());
+  for (std::size_t i = 0; i < a.series().size(); ++i)
+    for (Date s = a.firstNight(); s <= a.lastNight(); ++s) {
+      for (int h = 0; h <= a.maxDba(); ++h) {
+        ASSERT_EQ(a.otbRooms(i, s, h), b.otbRooms(i, s, h)) << i << " " << s.toIso() << " " << h;
+        ASSERT_EQ(a.otbRevenue(i, s, h), b.otbRevenue(i, s, h)) << s.toIso() << " d=" << h;
+      }
+      ASSERT_EQ(a.final(i, s), b.final(i, s)) << s.toIso();
+      ASSERT_EQ(a.actual(i, s), b.actual(i, s)) << s.toIso();
+    }
+}
+
+} // namespace
+
+// A cube as of the newest date, narrowed to an earlier reading date and fewer nights, against
+// the cube built from the reservations for that date (what Horizon does when the reading date
+// moves back). Cell for cell, unknown cells included.
+TEST(CurveCube, NarrowedIsTheCubeBuiltAtTheEarlierDate) {
+  const auto &all = sample().reservations;
+  const Date newest = *cb::newestActivity(all);
+  for (SeriesBy by : {SeriesBy::Total, SeriesBy::Segment}) {
+    CubeOptions o = wholeRange(all, by);
+    o.lastNight = newest + 90;
+    o.maxDba = 121;
+    o.asOf = newest;
+    const CurveCube wide = CurveCube::build(all, o);
+    for (int back : {0, 1, 40, 400}) {
+      CubeOptions earlier = o;
+      earlier.asOf = newest - back;
+      earlier.lastNight = newest - back + 90;
+      ASSERT_TRUE(wide.canNarrowTo(earlier)) << back;
+      expectSameCube(wide.narrowed(earlier), CurveCube::build(all, earlier));
+    }
+    // Not from a cube of an earlier date, other leads, another split or a later last night.
+    CubeOptions later = o;
+    later.asOf = newest - 1;
+    EXPECT_FALSE(CurveCube::build(all, later).canNarrowTo(o));
+    CubeOptions other = o;
+    other.maxDba = 120;
+    EXPECT_FALSE(wide.canNarrowTo(other));
+    other = o;
+    other.by = by == SeriesBy::Total ? SeriesBy::Segment : SeriesBy::Total;
+    EXPECT_FALSE(wide.canNarrowTo(other));
+    other = o;
+    other.lastNight = o.lastNight + 1;
+    EXPECT_FALSE(wide.canNarrowTo(other));
+    EXPECT_THROW((void)wide.narrowed(other), std::invalid_argument);
+    other = o;
+    other.asOf.reset();
+    EXPECT_FALSE(wide.canNarrowTo(other));
+  }
+}
+
+// A segment first booked after the earlier date is not a series of the narrowed cube, as it is
+// not one of the cube built for that date; a no-show booked after its night (invalid data the
+// cube still takes) makes a cube that is not narrowed.
+TEST(CurveCube, NarrowedKeepsTheSeriesBookedByThen) {
+  std::vector<Reservation> rows = {
+      res("1", "2026-03-01", "2026-03-10", "2026-03-12", 2, 100.0, "CORP"),
+      res("2", "2026-03-03", "2026-03-11", "2026-03-13", 1, 80.0, "LEIS", "2026-03-08"),
+      res("3", "2026-03-06", "2026-03-10", "2026-03-11", 3, 90.0, "GRP"),
+      res("4", "2026-03-09", "2026-03-12", "2026-03-14", 1, 120.0, "CORP"),
+  };
+  CubeOptions o{d("2026-03-08"), d("2026-03-16"), 10, SeriesBy::Segment, d("2026-03-09")};
+  const CurveCube wide = CurveCube::build(rows, o);
+  EXPECT_EQ(wide.series(), (std::vector<std::string>{"ALL", "CORP", "GRP", "LEIS"}));
+  for (const char *t : {"2026-03-02", "2026-03-05", "2026-03-06", "2026-03-08"}) {
+    CubeOptions earlier = o;
+    earlier.asOf = d(t);
+    earlier.lastNight = d("2026-03-13");
+    ASSERT_TRUE(wide.canNarrowTo(earlier)) << t;
+    expectSameCube(wide.narrowed(earlier), CurveCube::build(rows, earlier));
+  }
+  CubeOptions early = o;
+  early.asOf = d("2026-03-05");
+  EXPECT_EQ(wide.narrowed(early).series(), (std::vector<std::string>{"ALL", "CORP", "LEIS"}));
+
+  rows.push_back(res("5", "2026-03-09", "2026-03-08", "2026-03-09", 1, 70.0, "CORP"));
+  rows.back().status = ReservationStatus::NoShow;
+  EXPECT_FALSE(CurveCube::build(rows, o).canNarrowTo(early));
+}
+
 // ---- The open city dataset: Antonio, de Almeida & Nunes, "Hotel booking demand datasets",
 // Data in Brief 22 (2019) 41–49, doi:10.1016/j.dib.2018.11.126, CC BY 4.0. ----
 

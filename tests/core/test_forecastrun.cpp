@@ -248,8 +248,9 @@ static cb::ForecastRequest sampleSegmentRequest(const cb::SampleProperty &sample
 
 // A cube kept by one run is read by the next run that needs exactly that cube (another segment
 // at the same reading date, as Horizon does when the user flips through segments), with the
-// values of a run that builds its own; a cube for another reading date or series kind is
-// ignored.
+// values of a run that builds its own; a cube of a later reading date is narrowed to the run's
+// (the reading date moved back); a cube of an earlier reading date, other leads or another
+// series kind is ignored.
 TEST(ForecastRun, AKeptCubeIsReadWhenItFitsAndIgnoredOtherwise) {
   static const cb::SampleProperty sample = cb::simulateProperty();
   cb::CensorSources censors;
@@ -282,11 +283,25 @@ TEST(ForecastRun, AKeptCubeIsReadWhenItFitsAndIgnoredOtherwise) {
   EXPECT_EQ(read.cube.get(), first.cube.get()); // read, not built again
   expectSameValues(read, own);
 
+  // An earlier reading date: the kept cube is narrowed to it (CurveCube::narrowed), the same
+  // values as a run that builds its own.
+  cb::ForecastRequest earlier = next;
+  earlier.asOf = next.asOf - 3;
+  const cb::ForecastRun narrowed =
+      cb::ForecastRun::compute(sample.reservations, sample.property, earlier);
+  ASSERT_TRUE(narrowed.cube);
+  EXPECT_NE(narrowed.cube.get(), first.cube.get());
+  EXPECT_EQ(narrowed.cube->asOf(), earlier.asOf);
+  earlier.cube.reset();
+  expectSameValues(narrowed,
+                   cb::ForecastRun::compute(sample.reservations, sample.property, earlier));
+
   for (int variant = 0; variant < 3; ++variant) {
     cb::ForecastRequest other = next;
-    if (variant == 0)
-      other.asOf = next.asOf - 1; // another reading date
-    else if (variant == 1)
+    if (variant == 0) { // a later reading date: the kept cube cannot hold what came after it
+      other.asOf = next.asOf - 1;
+      other.cube = narrowed.cube; // as of next.asOf - 3
+    } else if (variant == 1)
       other.horizon = next.horizon + 1; // other nights and leads
     else {
       other.by = cb::SeriesBy::Total; // another kind of series
@@ -295,6 +310,7 @@ TEST(ForecastRun, AKeptCubeIsReadWhenItFitsAndIgnoredOtherwise) {
     const cb::ForecastRun ignored =
         cb::ForecastRun::compute(sample.reservations, sample.property, other);
     EXPECT_NE(ignored.cube.get(), first.cube.get()) << variant;
+    EXPECT_NE(ignored.cube.get(), other.cube.get()) << variant;
     other.cube.reset();
     expectSameValues(ignored,
                      cb::ForecastRun::compute(sample.reservations, sample.property, other));
