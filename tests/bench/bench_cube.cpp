@@ -274,12 +274,18 @@ void BM_LoadStore1MTable(benchmark::State &state) {
 /// default method, unconstrained history with the property's denials) and when a segment is
 /// picked (that segment's forecast of 90 nights), on the 1M property's reservations in memory,
 /// with the reservations' bounds found once beforehand, as the workbench's session does.
-void BM_HorizonOutlook1M(benchmark::State &state) {
-  const DataSet &set = millionBookings();
+// What Horizon asks for the hotel: 90 nights at the reading date.
+static cb::OutlookOptions horizonOutlookOptions(const DataSet &set) {
   cb::OutlookOptions o;
   o.asOf = cb::millionBookingConfig().readingDate;
   o.days = 90;
   o.bounds = cb::boundsOf(set.reservations);
+  return o;
+}
+
+void BM_HorizonOutlook1M(benchmark::State &state) {
+  const DataSet &set = millionBookings();
+  const cb::OutlookOptions o = horizonOutlookOptions(set);
   for (auto _ : state) {
     const cb::Outlook out = cb::computeOutlook(set.reservations, millionExtras().property,
                                                millionExtras().sources, {}, o);
@@ -331,10 +337,7 @@ void BM_HorizonSegmentKeptCube1M(benchmark::State &state) {
 // reading date kept (Horizon, the user moving the reading date back).
 void BM_HorizonOutlookDayBack1M(benchmark::State &state) {
   const DataSet &set = millionBookings();
-  cb::OutlookOptions o;
-  o.asOf = cb::millionBookingConfig().readingDate;
-  o.days = 90;
-  o.bounds = cb::boundsOf(set.reservations);
+  cb::OutlookOptions o = horizonOutlookOptions(set);
   o.cube =
       cb::computeOutlook(set.reservations, millionExtras().property, millionExtras().sources, {}, o)
           .cube;
