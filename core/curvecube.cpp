@@ -335,7 +335,6 @@ CurveCube CurveCube::narrowed(const CubeOptions &o) const {
   c.nights_ = c.last_ - c.first_ + 1;
   c.maxDba_ = maxDba_;
   c.by_ = by_;
-  c.lateNoShow_ = false;
   std::vector<std::size_t> from; // the source series of each series kept, in order
   for (std::size_t k = 0; k < series_.size(); ++k)
     if (k == 0 || firstBooked_[k] <= c.asOf_) {
