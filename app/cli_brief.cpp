@@ -1,27 +1,27 @@
-// The brief verb: the one-page morning brief PDF (ui/morningbrief.h) from the command line, with
-// no display needed (Qt's offscreen platform unless QT_QPA_PLATFORM says otherwise). It paints
-// with Qt, so it is built only with the GUI (CURVEBENCH_BUILD_GUI=ON, which defines
-// CURVEBENCH_HAS_BRIEF); a core-only curvebench says so and exits with 2.
+// The brief verb: the one-page morning brief PDF from the command line. It paints with Qt, so
+// the painting is a program of its own, curvebench-brief (app/brief_main.cpp), built with the GUI
+// (CURVEBENCH_BUILD_GUI=ON) beside curvebench, which runs it: the command line itself links no
+// Qt. Without it (a core-only build), the verb says so and exits with 2.
 #include "app/cliverbs.h"
 
 #include "app/clicommon.h"
 
-#include "core/advice.h"
-
-#ifdef CURVEBENCH_HAS_BRIEF
-#include "ui/morningbrief.h"
-#include "ui/workbenchsession.h"
-
-#include <QApplication>
-#include <QDate>
-#include <QString>
-#endif
-
 #include <fmt/format.h>
 
-#include <cstdlib>
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
+#include <filesystem>
 #include <memory>
 #include <string>
+#include <vector>
+
+#if defined(__unix__) || defined(__APPLE__)
+#include <unistd.h>
+#define CURVEBENCH_HAS_EXEC 1
+#else
+#define CURVEBENCH_HAS_EXEC 0
+#endif
 
 namespace cbcli {
 namespace {
@@ -30,36 +30,45 @@ struct BriefArgs {
   std::string store, asOf, out;
 };
 
-int runBrief(const BriefArgs &a) {
-#ifdef CURVEBENCH_HAS_BRIEF
-  const char *platform = std::getenv("QT_QPA_PLATFORM");
-  if (!platform || !*platform)
-    setenv("QT_QPA_PLATFORM", "offscreen", 1); // no display needed
-  static int argc = 1;
-  static char name[] = "curvebench";
-  static char *argv[] = {name, nullptr};
-  QApplication app(argc, argv); // the chart is a QCustomPlot widget, painted offscreen
+/// curvebench-brief beside this program (Linux: /proc/self/exe), else the name alone, looked up
+/// on PATH.
+std::string briefProgram() {
+  std::error_code ec;
+  const std::filesystem::path self = std::filesystem::read_symlink("/proc/self/exe", ec);
+  if (!ec) {
+    const std::filesystem::path beside = self.parent_path() / "curvebench-brief";
+    if (std::filesystem::exists(beside, ec))
+      return beside.string();
+  }
+  return "curvebench-brief";
+}
 
-  auto session = cbui::WorkbenchSession::open(a.store);
-  QDate asOf;
-  if (!a.asOf.empty())
-    asOf = QDate::fromString(QString::fromStdString(a.asOf), Qt::ISODate);
-  const std::string used = a.asOf.empty() ? session->readingDate().toIso() : a.asOf;
-  QString error;
-  if (!cbui::renderMorningBrief(*session, asOf, QString::fromStdString(a.out), &error)) {
-    fmt::print(stderr, "curvebench brief: {}\n", error.toStdString());
+int runBrief(const BriefArgs &a) {
+#if CURVEBENCH_HAS_EXEC
+  const std::string program = briefProgram();
+  std::vector<std::string> args = {program, a.store, "--out", a.out};
+  if (!a.asOf.empty()) {
+    args.push_back("--as-of");
+    args.push_back(a.asOf);
+  }
+  std::vector<char *> argv;
+  for (std::string &arg : args)
+    argv.push_back(arg.data());
+  argv.push_back(nullptr);
+  std::fflush(stdout);
+  std::fflush(stderr);
+  ::execvp(program.c_str(), argv.data()); // returns only when it could not run
+  if (errno != ENOENT) {
+    fmt::print(stderr, "curvebench brief: cannot run {}: {}\n", program, std::strerror(errno));
     return kUsageOrIo;
   }
-  fmt::print("morning brief as of {} ({} nights, lists over {} nights) written to {}\n", used,
-             cbui::kBriefNights, cbui::kBriefLookahead, a.out);
-  fmt::print("{}\n", cb::kAdvisoryCaution);
-  return kOk;
 #else
   (void)a;
-  fmt::print(stderr, "curvebench brief: this curvebench was built without the GUI "
-                     "(CURVEBENCH_BUILD_GUI=OFF); the morning brief needs the GUI build\n");
-  return kUsageOrIo;
 #endif
+  fmt::print(stderr, "curvebench brief: this curvebench was built without the GUI "
+                     "(CURVEBENCH_BUILD_GUI=OFF), so curvebench-brief is not beside it; the "
+                     "morning brief needs the GUI build\n");
+  return kUsageOrIo;
 }
 
 } // namespace

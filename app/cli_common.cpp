@@ -56,6 +56,55 @@ std::unique_ptr<cb::Store> openWithRows(const std::string &path,
   return store;
 }
 
+CubeSource::CubeSource(const std::string &path, bool total) : store_(cb::Store::open(path)) {
+  if (!total)
+    return;
+  const std::filesystem::path file = cb::keptCubePathFor(store_->path());
+  const std::uint64_t stamp = store_->reservationStamp();
+  kept_ = cb::readKeptCube(file, stamp);
+  if (kept_)
+    return;
+  reservations();
+  // Kept only when no import came between the stamp and the rows (a new stamp each time): else
+  // the file would name rows it was not built from.
+  if (store_->reservationStamp() != stamp)
+    return;
+  try {
+    kept_ = cb::keptCubeOf(rows_);
+    // Best effort, as the snapshot: a store opened for reading only leaves its folder alone.
+    if (kept_ && !store_->readOnly())
+      cb::writeKeptCube(file, stamp, *kept_);
+  } catch (const std::exception &) {
+    // No cube to keep (out of memory, say): the command builds its own from the rows.
+  }
+}
+
+const std::vector<cb::Reservation> &CubeSource::reservations() {
+  if (!loaded_) {
+    rows_ = store_->reservations();
+    loaded_ = true;
+  }
+  return rows_;
+}
+
+cb::CurveCube CubeSource::cube(const cb::CubeOptions &options) {
+  if (kept_) {
+    // Exactly the kept cube (`curves` with its defaults): handed over rather than copied.
+    const cb::CubeOptions k = kept_->cube.options();
+    if (options.by == k.by && options.firstNight == k.firstNight &&
+        options.lastNight == k.lastNight && options.maxDba == k.maxDba &&
+        options.asOf.value_or(*k.asOf) == *k.asOf) {
+      cb::CurveCube c = std::move(kept_->cube);
+      kept_.reset();
+      return c;
+    }
+  }
+  if (kept_)
+    if (std::optional<cb::CurveCube> c = kept_->cubeFor(options))
+      return std::move(*c);
+  return cb::CurveCube::build(reservations(), options);
+}
+
 cb::CensorSources censorSources(const cb::Store &store) {
   return {store.closures(), store.denials()};
 }

@@ -134,8 +134,12 @@ int runForecast(const ForecastArgs &a) {
 }
 
 int runBacktest(const BacktestArgs &a) {
-  std::vector<cb::Reservation> rows;
-  auto store = openWithRows(a.store, rows);
+  const cb::SeriesBy by = *cb::parseSeriesBy(a.by);
+  CubeSource source(a.store, by == cb::SeriesBy::Total);
+  if (!source.kept() && source.reservations().empty())
+    throw std::runtime_error(a.store +
+                             " has no reservations, so there is nothing to forecast from");
+  cb::Store *store = &source.store();
   cb::BacktestOptions o;
   o.from = *cb::Date::parseIso(a.from);
   o.to = *cb::Date::parseIso(a.to);
@@ -154,10 +158,15 @@ int runBacktest(const BacktestArgs &a) {
   o.autoSelect.criterion = *cb::parseCriterion(a.flags.criterion);
   if (o.to < o.from)
     throw std::runtime_error("--from " + a.from + " is after --to " + a.to);
-  const cb::CurveCube cube = cb::Backtest::buildCube(rows, o, *cb::parseSeriesBy(a.by));
+  // The kept cube holds the backtest's cube unless the leads reach past it.
+  const cb::CurveCube cube =
+      source.kept() ? source.cube(cb::Backtest::cubeOptions(source.kept()->bounds, o, by))
+                    : cb::Backtest::buildCube(source.reservations(), o, by);
   const cb::Property property = store->property();
-  const cb::CensorSources sources = censorSources(*store);
   o.unconstrain = cb::historyOptions(property, a.flags.naiveHistory);
+  // Only unconstraining reads closures and denials (the 1M property's 77,791 denials were a
+  // sixth of this command's time with the history taken as observed).
+  const cb::CensorSources sources = o.unconstrain ? censorSources(*store) : cb::CensorSources{};
   o.censoring = &sources;
   const cb::BacktestResult r = cb::Backtest::run(cube, property, o);
 

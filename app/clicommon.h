@@ -5,6 +5,7 @@
 #include "core/csvreader.h"
 #include "core/date.h"
 #include "core/finding.h"
+#include "core/keptcube.h"
 #include "core/store.h"
 #include "core/unconstrain.h"
 
@@ -39,6 +40,29 @@ const char *weekdayName(cb::Date d);
 /// is nothing to forecast from).
 std::unique_ptr<cb::Store> openWithRows(const std::string &path,
                                         std::vector<cb::Reservation> &rows);
+/// A store and what a verb reads of it to build curve cubes: for the total, the kept cube
+/// (core/keptcube.h) when it is current, so the reservations are not loaded at all; else the
+/// reservations, from which the kept cube is then built and written beside the store (best
+/// effort) for the next command.
+class CubeSource {
+public:
+  /// Opens the store; `total` false (a split) never reads or writes the kept cube.
+  CubeSource(const std::string &path, bool total);
+  cb::Store &store() { return *store_; }
+  /// The kept cube, when there is one (a total, and a store whose reservations stay a night).
+  const std::optional<cb::KeptCube> &kept() const { return kept_; }
+  /// The reservations, loaded at the first call when the kept cube was read instead.
+  const std::vector<cb::Reservation> &reservations();
+  /// kept()->cubeFor(options) when it gives one, else CurveCube::build(reservations(), options).
+  /// Asking for exactly the kept cube hands it over: kept() is empty afterwards.
+  cb::CurveCube cube(const cb::CubeOptions &options);
+
+private:
+  std::unique_ptr<cb::Store> store_;
+  std::optional<cb::KeptCube> kept_;
+  std::vector<cb::Reservation> rows_;
+  bool loaded_ = false;
+};
 /// The store's sales closures and denials: what unconstraining reads.
 cb::CensorSources censorSources(const cb::Store &store);
 

@@ -87,23 +87,29 @@ void forecastAt(const CurveCube &cube, const Property &property,
 
 } // namespace
 
-CurveCube Backtest::buildCube(const std::vector<Reservation> &reservations,
-                              const BacktestOptions &options, SeriesBy by) {
+CubeOptions Backtest::cubeOptions(const ReservationBounds &bounds, const BacktestOptions &options,
+                                  SeriesBy by) {
   const std::vector<int> leads = sortedLeads(options.leads);
-  const std::optional<Date> newest = newestActivity(reservations);
-  if (!newest)
-    throw AsOfError("backtest: there are no reservations");
-  Date first = *newest;
-  for (const Reservation &r : reservations)
-    first = std::min(first, r.arrival);
+  const Date newest = bounds.newest.value();
+  const Date first = std::min(newest, bounds.firstArrival.value());
   CubeOptions co;
   co.firstNight = first;
-  co.lastNight = std::max(first, std::min(options.to + leads.back(), *newest));
+  co.lastNight = std::max(first, std::min(options.to + leads.back(), newest));
   // The pace method reads OTB(s, t − w) with w up to 15 days; a month of room is plenty.
   co.maxDba = leads.back() + 31;
   co.by = by;
-  co.asOf = *newest;
-  return CurveCube::build(reservations, co);
+  co.asOf = newest;
+  co.newest = newest;
+  return co;
+}
+
+CurveCube Backtest::buildCube(const std::vector<Reservation> &reservations,
+                              const BacktestOptions &options, SeriesBy by) {
+  (void)sortedLeads(options.leads); // its errors first, as before the bounds were asked for
+  const ReservationBounds bounds = boundsOf(reservations);
+  if (!bounds.newest)
+    throw AsOfError("backtest: there are no reservations");
+  return CurveCube::build(reservations, cubeOptions(bounds, options, by));
 }
 
 BacktestResult Backtest::run(const CurveCube &cube, const Property &property,

@@ -112,6 +112,10 @@ public:
   /// activity), maxDba = max lead + 31 (room for the pace window), as of the newest activity.
   static CurveCube buildCube(const std::vector<Reservation> &reservations,
                              const BacktestOptions &options, SeriesBy by);
+  /// The options buildCube() builds with, from what it needs to know of the reservations
+  /// (bounds.newest and bounds.firstArrival set): for a cube made another way (core/keptcube.h).
+  static CubeOptions cubeOptions(const ReservationBounds &bounds, const BacktestOptions &options,
+                                 SeriesBy by);
   /// Runs the backtest over one cube. Only nights s ≤ cube.asOf() are forecast (their final is
   /// known). Rows are the same whatever the number of threads. Throws MethodError for an unknown
   /// method name and std::invalid_argument for an empty lead list or from > to.

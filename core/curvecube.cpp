@@ -319,22 +319,30 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
   return c;
 }
 
-bool CurveCube::canNarrowTo(const CubeOptions &o) const {
-  return o.asOf && *o.asOf <= asOf_ && o.by == by_ && o.firstNight == first_ &&
-         o.lastNight >= first_ && o.lastNight <= last_ && o.maxDba == maxDba_ && !lateNoShow_;
+bool CurveCube::canNarrowTo(const CubeOptions &o, Outside outside) const {
+  if (!o.asOf || *o.asOf > asOf_ || (*o.asOf < asOf_ && lateNoShow_) || o.by != by_ ||
+      o.maxDba < 0 || o.maxDba > maxDba_ || o.lastNight < o.firstNight)
+    return false;
+  if (outside == Outside::Unknown && (o.firstNight < first_ || o.lastNight > last_))
+    return false;
+  // build() refuses a cube this large with its message; so does narrowing (the caller builds).
+  const double cells = (static_cast<double>(o.lastNight - o.firstNight) + 1.0) * (o.maxDba + 1.0) *
+                       static_cast<double>(series_.size());
+  return cells <= static_cast<double>(kMaxCells);
 }
 
-CurveCube CurveCube::narrowed(const CubeOptions &o) const {
-  if (!canNarrowTo(o))
+CurveCube CurveCube::narrowed(const CubeOptions &o, Outside outside) const {
+  if (!canNarrowTo(o, outside))
     throw std::invalid_argument("this curve cube cannot give the one asked for: another series "
-                                "kind, first night or lead range, or a later night or date");
+                                "kind, a longer lead range, or nights or a date it does not hold");
   CurveCube c;
-  c.first_ = first_;
+  c.first_ = o.firstNight;
   c.last_ = o.lastNight;
   c.asOf_ = *o.asOf;
   c.nights_ = c.last_ - c.first_ + 1;
-  c.maxDba_ = maxDba_;
+  c.maxDba_ = o.maxDba;
   c.by_ = by_;
+  c.lateNoShow_ = lateNoShow_;   // kept for the whole range: at worst a later narrowing is refused
   std::vector<std::size_t> from; // the source series of each series kept, in order
   for (std::size_t k = 0; k < series_.size(); ++k)
     if (k == 0 || firstBooked_[k] <= c.asOf_) {
@@ -342,28 +350,32 @@ CurveCube CurveCube::narrowed(const CubeOptions &o) const {
       c.series_.push_back(series_[k]);
       c.firstBooked_.push_back(firstBooked_[k]);
     }
-  const std::size_t stride = static_cast<std::size_t>(maxDba_) + 1;
+  const std::size_t stride = static_cast<std::size_t>(c.maxDba_) + 1;
+  const std::size_t srcStride = static_cast<std::size_t>(maxDba_) + 1;
   const std::size_t nights = static_cast<std::size_t>(c.nights_);
   const std::size_t srcNights = static_cast<std::size_t>(nights_);
-  c.rooms_.resize(nights * stride * from.size());
+  c.rooms_.resize(nights * stride * from.size()); // zeros: unknown cells and nights outside
   c.revenue_.resize(c.rooms_.size());
   c.noShow_.assign(nights * from.size(), 0);
-  const int asOfNight = c.asOf_ - first_;
+  const int asOfNight = c.asOf_ - c.first_;
+  // The nights of the new range this cube holds; the others stay 0 (Outside::Empty).
+  const int lo = std::max(0, first_ - c.first_);
+  const int hi = std::min(c.nights_ - 1, last_ - c.first_);
   for (std::size_t j = 0; j < from.size(); ++j)
-    for (std::size_t n = 0; n < nights; ++n) {
-      const std::size_t src = (from[j] * srcNights + n) * stride;
-      const std::size_t dst = (j * nights + n) * stride;
+    for (int n = lo; n <= hi; ++n) {
+      const std::size_t srcNight = static_cast<std::size_t>(c.first_ + n - first_);
+      const std::size_t src = (from[j] * srcNights + srcNight) * srcStride;
+      const std::size_t dst = (j * nights + static_cast<std::size_t>(n)) * stride;
       // Cells d < s − asOf are read after the reading date: unknown, so 0 as build() leaves them.
-      const std::size_t lo = static_cast<std::size_t>(
-          std::clamp(static_cast<int>(n) - asOfNight, 0, static_cast<int>(stride)));
-      std::fill_n(c.rooms_.begin() + static_cast<std::ptrdiff_t>(dst), lo, 0);
-      std::fill_n(c.revenue_.begin() + static_cast<std::ptrdiff_t>(dst), lo, 0);
-      std::copy_n(rooms_.begin() + static_cast<std::ptrdiff_t>(src + lo), stride - lo,
-                  c.rooms_.begin() + static_cast<std::ptrdiff_t>(dst + lo));
-      std::copy_n(revenue_.begin() + static_cast<std::ptrdiff_t>(src + lo), stride - lo,
-                  c.revenue_.begin() + static_cast<std::ptrdiff_t>(dst + lo));
-      if (static_cast<int>(n) <= asOfNight)
-        c.noShow_[j * nights + n] = noShow_[from[j] * srcNights + n];
+      const std::size_t known =
+          static_cast<std::size_t>(std::clamp(n - asOfNight, 0, static_cast<int>(stride)));
+      std::copy_n(rooms_.begin() + static_cast<std::ptrdiff_t>(src + known), stride - known,
+                  c.rooms_.begin() + static_cast<std::ptrdiff_t>(dst + known));
+      std::copy_n(revenue_.begin() + static_cast<std::ptrdiff_t>(src + known), stride - known,
+                  c.revenue_.begin() + static_cast<std::ptrdiff_t>(dst + known));
+      if (n <= asOfNight)
+        c.noShow_[j * nights + static_cast<std::size_t>(n)] =
+            noShow_[from[j] * srcNights + srcNight];
     }
   return c;
 }

@@ -64,20 +64,28 @@ public:
   /// `cube.otbRooms(*cube.seriesIndex("CORP"), night, 14)` = corporate rooms 14 days out.
   static CurveCube build(const std::vector<Reservation> &reservations, const CubeOptions &options);
 
-  /// True when narrowed(options) gives the cube build() would give for `options` from the
-  /// reservations this cube was built from: the same series kind, first night and leads, a last
-  /// night and a reading date (options.asOf, which must be set) no later than this cube's.
-  bool canNarrowTo(const CubeOptions &options) const;
+  /// What a caller knows of the reservations outside this cube's nights. Empty: build() would
+  /// give 0 in every cell outside them, because no reservation stays a night before
+  /// firstNight(), and none after lastNight() unless that night is after asOf() + maxDba() (so
+  /// unknown at every lead this cube has). A cube over every night stayed is such a cube.
+  enum class Outside { Unknown, Empty };
+  /// True when narrowed(options, outside) gives the cube build() would give for `options` from
+  /// the reservations this cube was built from: the same series kind; a reading date
+  /// (options.asOf, which must be set) no later than this cube's; leads 0 … D with D no more than
+  /// this cube's; and nights within this cube's (any nights when `outside` is Empty).
+  bool canNarrowTo(const CubeOptions &options, Outside outside = Outside::Unknown) const;
   /// The options this cube was built with (its nights, leads, series kind and reading date).
   CubeOptions options() const { return {first_, last_, maxDba_, by_, asOf_}; }
-  /// The cube build(reservations, options) gives (requires canNarrowTo(options), else
+  /// The cube build(reservations, options) gives (requires canNarrowTo(options, outside), else
   /// std::invalid_argument), made from this cube's cells instead of the reservations: a cell read
   /// on or before the earlier reading date counts the same rows in both cubes (a row booked or
   /// cancelled later reaches only cells read later), the cells read after it become unknown (0),
-  /// and a split keeps the series booked by then. A screen that moves the reading date back keeps
-  /// one cube as of the newest date and narrows it: a copy of the cells instead of a pass over
-  /// every reservation.
-  CurveCube narrowed(const CubeOptions &options) const;
+  /// a split keeps the series booked by then, and a cell at lead d is OTB(s, s − d) whatever the
+  /// longest lead (the last lead holds everything booked that far ahead or more, which is that
+  /// same figure). A screen that moves the reading date back keeps one cube as of the newest date
+  /// and narrows it: a copy of the cells instead of a pass over every reservation; the command
+  /// line narrows the cube kept beside the store (core/keptcube.h).
+  CurveCube narrowed(const CubeOptions &options, Outside outside = Outside::Unknown) const;
 
   Date firstNight() const { return first_; }
   Date lastNight() const { return last_; }
@@ -99,6 +107,10 @@ public:
   }
   /// Revenue on the books (rate × rooms), same cells; exact to 1e-6 of the currency unit.
   double otbRevenue(std::size_t series, Date night, int dba) const;
+  /// The same revenue as it is summed: in millionths of the currency unit (exact).
+  std::int64_t otbRevenueMicros(std::size_t series, Date night, int dba) const {
+    return revenue_[cell(series, night, dba)];
+  }
   /// Final(s) = OTB(s, s); nullopt when s is after asOf().
   std::optional<int> final(std::size_t series, Date night) const {
     const std::size_t k = cell(series, night, 0);
@@ -131,6 +143,7 @@ private:
   bool lateNoShow_ = false;
   /// Where the large arrays live (see curvecube.cpp: large blocks on huge pages).
   static std::pmr::memory_resource *bigBlocks();
+  friend class KeptCubeCodec; // core/keptcube.cpp: the cube's cells to a file and back
   std::pmr::vector<std::int32_t> rooms_{bigBlocks()};   ///< [series][night][dba]
   std::pmr::vector<std::int64_t> revenue_{bigBlocks()}; ///< same layout, in millionths
   std::vector<std::int32_t> noShow_;                    ///< [series][night] no-show rooms

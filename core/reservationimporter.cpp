@@ -1,6 +1,7 @@
 #include "core/reservationimporter.h"
 
 #include "core/csvreader.h"
+#include "core/keptcube.h"
 #include "core/largememory.h"
 #include "core/mappingprofile.h"
 #include "core/nativeformat.h"
@@ -556,14 +557,27 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   std::thread snapshotWriter;
   if (stampAfter != stampBefore && writtenComplete) {
     try {
-      snapshotWriter = std::thread([&, snapshot = snapshotPathFor(store.path())]() noexcept {
+      snapshotWriter = std::thread([&, snapshot = snapshotPathFor(store.path()),
+                                    cubeFile = keptCubePathFor(store.path())]() noexcept {
+        // The kept cube from the same rows (core/keptcube.h): the commands that read the total
+        // curves then need neither the rows nor a pass over them.
+        auto keepCube = [&](const std::vector<Reservation> &rows) {
+          try {
+            if (const std::optional<KeptCube> kept = keptCubeOf(rows))
+              writeKeptCube(cubeFile, stampAfter, *kept);
+          } catch (...) {
+            // Only a cache, as the snapshot: the next command that needs it builds it.
+          }
+        };
         try {
           if (storedBefore == 0) {
             std::sort(written.begin(), written.end(),
                       [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
             writeReservationSnapshot(snapshot, stampAfter, written);
+            keepCube(written);
           } else {
-            updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written));
+            updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written),
+                                      keepCube);
           }
         } catch (...) {
           // Only a cache (out of memory, say): the next read rebuilds it from the store.

@@ -1,5 +1,6 @@
 #include "core/reservationsnapshot.h"
 
+#include "core/cachefile.h"
 #include "core/largememory.h"
 #include "core/store.h"
 
@@ -10,27 +11,14 @@
 #include <chrono>
 #include <cstdio>
 #include <cstring>
-#include <fstream>
 #include <functional>
 #include <iterator>
 #include <limits>
 #include <memory>
-#include <random>
 #include <string>
 #include <string_view>
 #include <system_error>
 #include <unordered_map>
-
-#if defined(__unix__) || defined(__APPLE__)
-#include <fcntl.h>
-#include <sys/mman.h>
-#include <sys/stat.h>
-#include <unistd.h>
-#define CURVEBENCH_HAS_MMAP 1
-#else
-#define CURVEBENCH_HAS_MMAP 0
-#include <sstream>
-#endif
 
 // Hand-written: the format is a handful of flat arrays (one per field) behind a header, read in
 // place. No Debian library we use offers a columnar file of our own record; SQLite is what it
@@ -304,60 +292,14 @@ std::optional<std::vector<Reservation>> rowsOf(const Decoded &in) {
   return rows;
 }
 
-/// The file's bytes mapped read-only (MAP_POPULATE: the page cache mapped in one call, no copy);
-/// read into memory where there is no mmap.
-class MappedFile {
-public:
-  explicit MappedFile(const fs::path &file) {
-#if CURVEBENCH_HAS_MMAP
-    const int fd = ::open(file.c_str(), O_RDONLY | O_CLOEXEC);
-    if (fd < 0)
-      return;
-    struct stat info {};
-    if (::fstat(fd, &info) == 0 && info.st_size > 0) {
-      const auto size = static_cast<std::size_t>(info.st_size);
-#ifdef MAP_POPULATE
-      constexpr int kFlags = MAP_PRIVATE | MAP_POPULATE; // Linux: map the page cache in one call
-#else
-      constexpr int kFlags = MAP_PRIVATE;
-#endif
-      void *p = ::mmap(nullptr, size, PROT_READ, kFlags, fd, 0);
-      if (p != MAP_FAILED) {
-        map_ = p;
-        bytes_ = std::string_view(static_cast<const char *>(p), size);
-      }
-    }
-    ::close(fd);
-#else
-    std::ifstream in(file, std::ios::binary);
-    std::ostringstream os;
-    if (in && (os << in.rdbuf())) {
-      copy_ = os.str();
-      bytes_ = copy_;
-    }
-#endif
-  }
-  ~MappedFile() {
-#if CURVEBENCH_HAS_MMAP
-    if (map_)
-      ::munmap(map_, bytes_.size());
-#endif
-  }
-  MappedFile(const MappedFile &) = delete;
-  MappedFile &operator=(const MappedFile &) = delete;
-  /// The bytes when the file exists and is at least a header long, and was written for `stamp`
-  /// (checked first: a snapshot for another stamp is not worth checking whole); else empty.
-  std::string_view bytesFor(std::uint64_t stamp) const {
-    if (bytes_.size() < kHeaderBytes || load<std::uint64_t>(bytes_.data() + 16) != stamp)
-      return {};
-    return bytes_;
-  }
-
-private:
-  void *map_ = nullptr;
-  std::string copy_;
-  std::string_view bytes_;
-};
+/// The bytes of a mapped snapshot when it is at least a header long and was written for
+/// `stamp` (checked first: a snapshot for another stamp is not worth checking whole); else empty.
+std::string_view bytesFor(const MappedFile &map, std::uint64_t stamp) {
+  const std::string_view bytes = map.bytes();
+  if (bytes.size() < kHeaderBytes || load<std::uint64_t>(bytes.data() + 16) != stamp)
+    return {};
+  return bytes;
+}
 
 } // namespace
 
@@ -375,7 +317,7 @@ std::optional<std::vector<Reservation>> decodeReservationSnapshot(std::string_vi
 std::optional<std::vector<Reservation>> readReservationSnapshot(const fs::path &file,
                                                                 std::uint64_t stamp) {
   const MappedFile map(file);
-  const std::string_view bytes = map.bytesFor(stamp);
+  const std::string_view bytes = bytesFor(map, stamp);
   if (bytes.empty())
     return std::nullopt;
   return rowsOf(Decoded(bytes, stamp));
@@ -385,7 +327,7 @@ bool visitSnapshotDigests(
     const fs::path &file, std::uint64_t stamp,
     const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) {
   const MappedFile map(file);
-  const std::string_view bytes = map.bytesFor(stamp);
+  const std::string_view bytes = bytesFor(map, stamp);
   if (bytes.empty())
     return false;
   const Decoded in(bytes, stamp);
@@ -395,62 +337,16 @@ bool visitSnapshotDigests(
   return true;
 }
 
-namespace {
-
-// A writer killed between writing its temporary file and the rename leaves "<file>.XXXXXXXX.tmp"
-// behind. Each successful write removes those older than an hour; younger ones may belong to a
-// writer still at work in another program.
-void removeStaleTemporaries(const fs::path &file) {
-  std::error_code ec;
-  const fs::path dir = file.has_parent_path() ? file.parent_path() : fs::path(".");
-  const std::string prefix = file.filename().string() + ".";
-  const auto cutoff = fs::file_time_type::clock::now() - std::chrono::hours(1);
-  for (fs::directory_iterator it(dir, ec), end; !ec && it != end; it.increment(ec)) {
-    const std::string name = it->path().filename().string();
-    if (name.size() != prefix.size() + 12 || name.compare(0, prefix.size(), prefix) != 0 ||
-        name.compare(name.size() - 4, 4, ".tmp") != 0)
-      continue;
-    std::error_code timeError;
-    const auto written = it->last_write_time(timeError);
-    if (!timeError && written < cutoff)
-      fs::remove(it->path(), timeError);
-  }
-}
-
-} // namespace
-
 bool writeReservationSnapshot(const fs::path &file, std::uint64_t stamp,
                               const std::vector<Reservation> &rows) {
   const Encoded encoded(stamp, rows);
-  const std::string_view bytes = encoded.bytes();
-  // A name no other writer uses, so two programs refreshing the same snapshot never mix bytes;
-  // the rename then replaces the file in one step.
-  const fs::path temp =
-      fs::path(fmt::format("{}.{:08x}.tmp", file.string(), std::random_device{}()));
-  {
-    std::ofstream out(temp, std::ios::binary | std::ios::trunc);
-    if (!out)
-      return false;
-    out.write(bytes.data(), static_cast<std::streamsize>(bytes.size()));
-    out.close();
-    if (!out) {
-      std::error_code ignored;
-      fs::remove(temp, ignored);
-      return false;
-    }
-  }
-  std::error_code ec;
-  fs::rename(temp, file, ec);
-  if (ec) {
-    fs::remove(temp, ec);
-    return false;
-  }
-  removeStaleTemporaries(file);
-  return true;
+  return replaceFile(file, encoded.bytes());
 }
 
-bool updateReservationSnapshot(const fs::path &file, std::uint64_t before, std::uint64_t after,
-                               std::vector<Reservation> changed) {
+bool updateReservationSnapshot(
+    const fs::path &file, std::uint64_t before, std::uint64_t after,
+    std::vector<Reservation> changed,
+    const std::function<void(const std::vector<Reservation> &rows)> &withRows) {
   auto base = readReservationSnapshot(file, before);
   if (!base)
     return false;
@@ -475,7 +371,10 @@ bool updateReservationSnapshot(const fs::path &file, std::uint64_t before, std::
     merged.push_back(std::move(c));
   }
   std::move(old, base->end(), std::back_inserter(merged));
-  return writeReservationSnapshot(file, after, merged);
+  const bool written = writeReservationSnapshot(file, after, merged);
+  if (withRows)
+    withRows(merged);
+  return written;
 }
 
 } // namespace cb

@@ -49,9 +49,12 @@ bool writeReservationSnapshot(const std::filesystem::path &file, std::uint64_t s
 /// `before`, writes the rows of `after` (the two merged by id) without reading the store. So a
 /// daily extract that changes a few thousand rows keeps the snapshot current for the next read.
 /// Returns false when there was no such snapshot or it could not be written; the next read then
-/// rebuilds it from the store.
-bool updateReservationSnapshot(const std::filesystem::path &file, std::uint64_t before,
-                               std::uint64_t after, std::vector<Reservation> changed);
+/// rebuilds it from the store. `withRows`, when given, is called with every row of `after` (in
+/// id order) once they are merged, so an import can keep what it derives from them current too.
+bool updateReservationSnapshot(
+    const std::filesystem::path &file, std::uint64_t before, std::uint64_t after,
+    std::vector<Reservation> changed,
+    const std::function<void(const std::vector<Reservation> &rows)> &withRows = {});
 
 /// The snapshot's bytes for `stamp` (what writeReservationSnapshot writes), for tests.
 std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows);

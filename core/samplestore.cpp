@@ -1,5 +1,6 @@
 #include "core/samplestore.h"
 
+#include "core/keptcube.h"
 #include "core/reservationsnapshot.h"
 
 #include <fmt/format.h>
@@ -20,7 +21,7 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
   // never leaves a half-filled store where the workbench would take it for the sample.
   std::filesystem::path partial = storePath;
   partial += ".partial";
-  for (const char *suffix : {"", "-wal", "-shm", ".snapshot"})
+  for (const char *suffix : {"", "-wal", "-shm", ".snapshot", ".cube"})
     std::filesystem::remove(partial.string() + suffix);
   auto store = Store::create(partial, sample.property);
   {
@@ -55,10 +56,12 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
   }
   store.reset(); // closes the connection, folding the write-ahead log into the file
   std::filesystem::rename(partial, storePath);
-  // The import wrote the reservation snapshot beside the partial store; it goes with it (its
-  // stamp is in the store, so it stays current under the new name).
+  // The import wrote the reservation snapshot and the kept cube beside the partial store; they
+  // go with it (their stamp is in the store, so they stay current under the new name).
   if (const auto snapshot = snapshotPathFor(partial); std::filesystem::exists(snapshot))
     std::filesystem::rename(snapshot, snapshotPathFor(storePath));
+  if (const auto cube = keptCubePathFor(partial); std::filesystem::exists(cube))
+    std::filesystem::rename(cube, keptCubePathFor(storePath));
   return report;
 }
 

@@ -93,3 +93,27 @@ TEST_F(CliForecast, HelpListsEveryMethodAndBadInputIsRefused) {
                            dir_);
   EXPECT_EQ(leads.code, 2);
 }
+
+// The first backtest on a store written without an import builds the kept total cube
+// (core/keptcube.h) and writes it; the next reads it instead of the reservations, with the same
+// output, hand-worked in PickupBacktestDetailSummaryAndOverride. Leads beyond the kept cube's 365 days
+// build their own cube.
+TEST_F(CliForecast, BacktestReadsTheKeptCube) {
+  const std::filesystem::path cube = dir_ / "t.curvebench.cube";
+  ASSERT_FALSE(std::filesystem::exists(cube));
+  auto backtest = [&](const std::string &leads, const char *detail) {
+    const CliRun r = run("backtest " + q(store_) + " --from 2026-02-01 --to 2026-02-02 --leads " +
+                             leads + " --methods pickup-add --detail " + q(dir_ / detail),
+                         dir_);
+    EXPECT_EQ(r.code, 0) << r.err;
+    return r.out + cbtest::readFile(dir_ / detail);
+  };
+  const std::string built = backtest("7,1", "a.csv");
+  ASSERT_TRUE(std::filesystem::exists(cube));
+  const std::string read = backtest("7,1", "b.csv");
+  EXPECT_EQ(read, built);
+  EXPECT_NE(read.find("2026-02-02,2026-02-01,ALL,1,pickup-add,3.00,3\n"), std::string::npos)
+      << read;
+  const std::string far = backtest("340,1", "c.csv");
+  EXPECT_NE(far.find("2026-02-02,2026-02-01,ALL,1,pickup-add,3.00,3\n"), std::string::npos) << far;
+}

@@ -369,27 +369,7 @@ TEST(CurveCube, AsOfIgnoresEverythingDatedLater) {
   }
 }
 
-namespace {
-
-/// Every cell, known or not, and the finals and actuals of the two cubes are the same.
-void expectSameCube(const CurveCube &a, const CurveCube &b) {
-  ASSERT_EQ(a.series(), b.series());
-  ASSERT_EQ(a.asOf(), b.asOf());
-  ASSERT_EQ(a.firstNight(), b.firstNight());
-  ASSERT_EQ(a.lastNight(), b.lastNight());
-  ASSERT_EQ(a.maxDba(), b.maxDba());
-  for (std::size_t i = 0; i < a.series().size(); ++i)
-    for (Date s = a.firstNight(); s <= a.lastNight(); ++s) {
-      for (int h = 0; h <= a.maxDba(); ++h) {
-        ASSERT_EQ(a.otbRooms(i, s, h), b.otbRooms(i, s, h)) << i << " " << s.toIso() << " " << h;
-        ASSERT_EQ(a.otbRevenue(i, s, h), b.otbRevenue(i, s, h)) << s.toIso() << " d=" << h;
-      }
-      ASSERT_EQ(a.final(i, s), b.final(i, s)) << s.toIso();
-      ASSERT_EQ(a.actual(i, s), b.actual(i, s)) << s.toIso();
-    }
-}
-
-} // namespace
+using cbtest::expectSameCube;
 
 // A cube as of the newest date, narrowed to an earlier reading date and fewer nights, against
 // the cube built from the reservations for that date (what Horizon does when the reading date
@@ -410,13 +390,25 @@ TEST(CurveCube, NarrowedIsTheCubeBuiltAtTheEarlierDate) {
       ASSERT_TRUE(wide.canNarrowTo(earlier)) << back;
       expectSameCube(wide.narrowed(earlier), CurveCube::build(all, earlier));
     }
-    // Not from a cube of an earlier date, other leads, another split or a later last night.
+    // Fewer leads and a later first night, with an earlier date too: a cell at lead d is
+    // OTB(s, s − d) whatever the longest lead.
+    for (int lead : {121, 120, 30, 0}) {
+      CubeOptions fewer = o;
+      fewer.maxDba = lead;
+      fewer.firstNight = o.firstNight + 200;
+      fewer.asOf = newest - 10;
+      fewer.lastNight = newest + 20;
+      ASSERT_TRUE(wide.canNarrowTo(fewer)) << lead;
+      expectSameCube(wide.narrowed(fewer), CurveCube::build(all, fewer));
+    }
+    // Not from a cube of an earlier date, more leads, another split or a later last night.
     CubeOptions later = o;
     later.asOf = newest - 1;
     EXPECT_FALSE(CurveCube::build(all, later).canNarrowTo(o));
     CubeOptions other = o;
-    other.maxDba = 120;
+    other.maxDba = 122;
     EXPECT_FALSE(wide.canNarrowTo(other));
+    EXPECT_FALSE(wide.canNarrowTo(other, CurveCube::Outside::Empty));
     other = o;
     other.by = by == SeriesBy::Total ? SeriesBy::Segment : SeriesBy::Total;
     EXPECT_FALSE(wide.canNarrowTo(other));
@@ -424,6 +416,9 @@ TEST(CurveCube, NarrowedIsTheCubeBuiltAtTheEarlierDate) {
     other.lastNight = o.lastNight + 1;
     EXPECT_FALSE(wide.canNarrowTo(other));
     EXPECT_THROW((void)wide.narrowed(other), std::invalid_argument);
+    other = o;
+    other.firstNight = o.firstNight - 1;
+    EXPECT_FALSE(wide.canNarrowTo(other));
     other = o;
     other.asOf.reset();
     EXPECT_FALSE(wide.canNarrowTo(other));
@@ -457,6 +452,44 @@ TEST(CurveCube, NarrowedKeepsTheSeriesBookedByThen) {
   rows.push_back(res("5", "2026-03-09", "2026-03-08", "2026-03-09", 1, 70.0, "CORP"));
   rows.back().status = ReservationStatus::NoShow;
   EXPECT_FALSE(CurveCube::build(rows, o).canNarrowTo(early));
+  // At its own date a cube with a late no-show still gives fewer nights or leads.
+  CubeOptions same = o;
+  same.lastNight = d("2026-03-12");
+  same.maxDba = 4;
+  const CurveCube withLate = CurveCube::build(rows, o);
+  ASSERT_TRUE(withLate.canNarrowTo(same));
+  expectSameCube(withLate.narrowed(same), CurveCube::build(rows, same));
+}
+
+// A cube over every night stayed (nights from the first to the last, or to the reading date +
+// leads) gives nights outside its own: they are empty, as build() finds them. What the kept
+// cube beside a store relies on (core/keptcube.h).
+TEST(CurveCube, NarrowedOutsideAnEmptyRangeGivesEmptyNights) {
+  const std::vector<Reservation> rows = {
+      res("1", "2026-03-01", "2026-03-10", "2026-03-12", 2, 100.0, "CORP"),
+      res("2", "2026-03-03", "2026-03-11", "2026-03-13", 1, 80.0, "LEIS", "2026-03-08"),
+      res("3", "2026-03-06", "2026-03-10", "2026-03-11", 3, 90.0, "GRP"),
+      res("4", "2026-03-09", "2026-03-12", "2026-03-30", 1, 120.0, "CORP"),
+  };
+  // Nights 03-10 … 03-19 (the reading date 03-09 + 10 leads; 03-20 … 03-29 are unknown).
+  for (SeriesBy by : {SeriesBy::Total, SeriesBy::Segment}) {
+    const CubeOptions o{d("2026-03-10"), d("2026-03-19"), 10, by, d("2026-03-09")};
+    const CurveCube all = CurveCube::build(rows, o);
+    for (const char *t : {"2026-03-09", "2026-03-07", "2026-02-20"})
+      for (int lead : {10, 6}) {
+        const CubeOptions wider{d("2026-03-01"), d("2026-04-15"), lead, by, d(t)};
+        EXPECT_FALSE(all.canNarrowTo(wider));
+        ASSERT_TRUE(all.canNarrowTo(wider, CurveCube::Outside::Empty)) << t;
+        expectSameCube(all.narrowed(wider, CurveCube::Outside::Empty),
+                       CurveCube::build(rows, wider));
+      }
+    // A range too large for build() (over 250 million cells) is not made by narrowing either.
+    const CurveCube deep =
+        CurveCube::build(rows, {d("2026-03-10"), d("2026-03-29"), 3650, by, d("2026-03-09")});
+    const CubeOptions huge{d("1900-01-01"), d("2400-01-01"), 3650, by, d("2026-03-09")};
+    EXPECT_FALSE(deep.canNarrowTo(huge, CurveCube::Outside::Empty));
+    EXPECT_THROW((void)CurveCube::build(rows, huge), cb::AsOfError);
+  }
 }
 
 // ---- The open city dataset: Antonio, de Almeida & Nunes, "Hotel booking demand datasets",

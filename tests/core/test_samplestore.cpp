@@ -1,3 +1,4 @@
+#include "core/keptcube.h"
 #include "core/reservationsnapshot.h"
 #include "core/samplestore.h"
 
@@ -34,6 +35,11 @@ TEST(SampleStore, HoldsEverythingTheSimulatorMade) {
       cb::readReservationSnapshot(dir / "s.curvebench.snapshot", store->reservationStamp());
   ASSERT_TRUE(snapshot.has_value());
   EXPECT_EQ(snapshot->size(), sample.reservations.size());
+  // So did the kept cube (core/keptcube.h).
+  EXPECT_FALSE(std::filesystem::exists(dir / "s.curvebench.partial.cube"));
+  const auto kept = cb::readKeptCube(dir / "s.curvebench.cube", store->reservationStamp());
+  ASSERT_TRUE(kept.has_value());
+  EXPECT_EQ(kept->bounds.newest, cb::boundsOf(sample.reservations).newest);
   // And it refuses to overwrite an existing store.
   EXPECT_THROW(cb::buildSampleStore(dir / "s.curvebench", dir / "files2"), cb::StoreError);
 }

@@ -146,4 +146,21 @@ std::vector<cb::Reservation> cutAt(const std::vector<cb::Reservation> &rs, cb::D
   return out;
 }
 
+void expectSameCube(const cb::CurveCube &a, const cb::CurveCube &b) {
+  ASSERT_EQ(a.series(), b.series());
+  ASSERT_EQ(a.asOf(), b.asOf());
+  ASSERT_EQ(a.firstNight(), b.firstNight());
+  ASSERT_EQ(a.lastNight(), b.lastNight());
+  ASSERT_EQ(a.maxDba(), b.maxDba());
+  for (std::size_t i = 0; i < a.series().size(); ++i)
+    for (cb::Date s = a.firstNight(); s <= a.lastNight(); ++s) {
+      for (int h = 0; h <= a.maxDba(); ++h) {
+        ASSERT_EQ(a.otbRooms(i, s, h), b.otbRooms(i, s, h)) << i << " " << s.toIso() << " " << h;
+        ASSERT_EQ(a.otbRevenue(i, s, h), b.otbRevenue(i, s, h)) << s.toIso() << " d=" << h;
+      }
+      ASSERT_EQ(a.final(i, s), b.final(i, s)) << s.toIso();
+      ASSERT_EQ(a.actual(i, s), b.actual(i, s)) << s.toIso();
+    }
+}
+
 } // namespace cbtest

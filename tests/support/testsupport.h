@@ -1,6 +1,7 @@
 // Shared helpers for every test executable.
 #pragma once
 
+#include "core/curvecube.h"
 #include "core/finding.h"
 #include "core/reservation.h"
 
@@ -77,5 +78,9 @@ cb::Reservation makeReservation(const char *id, const char *booked, const char *
 /// after t are absent, cancellations after t not yet made, and rows not cancelled by t that
 /// arrive after t still just Booked (later no-shows and check-outs not yet known).
 std::vector<cb::Reservation> cutAt(const std::vector<cb::Reservation> &rs, cb::Date t);
+
+/// Every cell, known or not, and the finals and actuals of the two cubes are the same (and their
+/// series, reading date, nights and leads).
+void expectSameCube(const cb::CurveCube &a, const cb::CurveCube &b);
 
 } // namespace cbtest
