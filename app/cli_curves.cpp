@@ -13,6 +13,7 @@
 
 #include <algorithm>
 #include <cerrno>
+#include <charconv>
 #include <cstdio>
 #include <cstring>
 #include <memory>
@@ -146,23 +147,35 @@ int runCurves(const CurvesArgs &a) {
   std::vector<std::string> names;
   for (const auto &name : cube.series())
     names.push_back(csvText(name));
+  // Each row written by hand: the "night,series," part once per night and series, the numbers
+  // with std::to_chars. fmt's compiled formats took 45 ms of the 80 ms `curves` takes for a
+  // million rows once the cube is kept (perf); this takes a quarter of that.
+  std::string prefix;
   for (cb::Date s = cube.firstNight(); s <= cube.lastNight(); ++s) {
-    const std::string night = s.toIso();
     const int firstKnown = std::max(0, s - cube.asOf());
     for (std::size_t i = 0; i < names.size(); ++i) {
-      // Compiled formats (fmt/compile.h): parsing the format string for each of a million rows
-      // was most of the time `curves` took once the cube was kept. Revenue in whole cents (rates
-      // in cents, the usual case) is written from the integer: the same text as {:.2f} of the
-      // double, which is within far less than half a cent of it.
+      prefix = s.toIso() + ',' + names[i] + ',';
       for (int d = firstKnown; d <= cube.maxDba(); ++d) {
+        char tail[64];
+        char *p = std::to_chars(tail, tail + sizeof tail, d).ptr;
+        *p++ = ',';
+        p = std::to_chars(p, tail + sizeof tail, cube.otbRooms(i, s, d)).ptr;
+        *p++ = ',';
         const std::int64_t micros = cube.otbRevenueMicros(i, s, d);
-        if (micros >= 0 && micros % 10000 == 0)
-          fmt::format_to(fmt::appender(out.buffer()), FMT_COMPILE("{},{},{},{},{}.{:02}\n"), night,
-                         names[i], d, cube.otbRooms(i, s, d), micros / 1000000,
-                         micros / 10000 % 100);
-        else
-          fmt::format_to(fmt::appender(out.buffer()), FMT_COMPILE("{},{},{},{},{:.2f}\n"), night,
-                         names[i], d, cube.otbRooms(i, s, d), cube.otbRevenue(i, s, d) + 0.0);
+        if (micros >= 0 && micros % 10000 == 0) {
+          // Whole cents (rates in cents, the usual case): the same text as {:.2f} of the
+          // double, which is within far less than half a cent of it.
+          const std::int64_t cents = micros / 10000;
+          p = std::to_chars(p, tail + sizeof tail, cents / 100).ptr;
+          *p++ = '.';
+          *p++ = static_cast<char>('0' + cents % 100 / 10);
+          *p++ = static_cast<char>('0' + cents % 10);
+        } else { // at most 13 digits before the point: revenue is int64 millionths
+          p = fmt::format_to(p, FMT_COMPILE("{:.2f}"), cube.otbRevenue(i, s, d) + 0.0);
+        }
+        *p++ = '\n';
+        out.buffer().append(prefix.data(), prefix.data() + prefix.size());
+        out.buffer().append(tail, p);
       }
       out.flushIfFull();
     }

@@ -193,3 +193,24 @@ TEST_F(CliCurves, TheKeptCubeChangesNoOutput) {
     EXPECT_EQ(run(commands[i]).out, withCube[i]) << commands[i];
   EXPECT_NE(withCube[0].find("2026-01-05,ALL,2,3,281.00\n"), std::string::npos) << withCube[0];
 }
+
+// Revenue is written to the cent: whole cents from the integer sum, any other amount rounded as
+// printf's %.2f rounds it (3 rooms at 33.333 = 99.999 → 100.00; 1 room → 33.33).
+TEST(CliCurvesCents, RevenueNotInWholeCentsIsRounded) {
+  cbtest::TempDir dir;
+  const auto store = dir / "c.curvebench";
+  ASSERT_EQ(run("init " + q(store) + " --name T --capacity 10").code, 0);
+  cbtest::writeFile(dir / "r.csv",
+                    "reservation_id,status,booked_on,cancelled_on,arrival,departure,rooms,"
+                    "room_type,segment,channel,rate,currency,block_id\n"
+                    "C1,booked,2026-01-01,,2026-01-03,2026-01-04,3,STD,CORP,WEB,33.333,,\n"
+                    "C2,booked,2026-01-02,,2026-01-03,2026-01-04,1,STD,CORP,WEB,33.333,,\n"
+                    "C3,booked,2026-01-02,,2026-01-04,2026-01-05,2,STD,CORP,WEB,10.25,,\n");
+  ASSERT_EQ(run("import " + q(store) + " " + q(dir / "r.csv")).code, 0);
+  CliRun r = run("curves " + q(store) + " --max-dba 2");
+  ASSERT_EQ(r.code, 0) << r.out;
+  EXPECT_EQ(r.out, "stay_date,series,dba,otb_rooms,otb_revenue\n"
+                   "2026-01-03,ALL,1,4,133.33\n" // read 01-02: 4 × 33.333 = 133.332
+                   "2026-01-03,ALL,2,3,100.00\n" // read 01-01: 3 × 33.333 = 99.999
+                   "2026-01-04,ALL,2,2,20.50\n");
+}
