@@ -96,8 +96,8 @@ TEST_F(CliForecast, HelpListsEveryMethodAndBadInputIsRefused) {
 
 // The first backtest on a store written without an import builds the kept total cube
 // (core/keptcube.h) and writes it; the next reads it instead of the reservations, with the same
-// output, hand-worked in PickupBacktestDetailSummaryAndOverride. Leads beyond the kept cube's 365 days
-// build their own cube.
+// output, hand-worked in PickupBacktestDetailSummaryAndOverride. Leads beyond the kept cube's 365
+// days build their own cube.
 TEST_F(CliForecast, BacktestReadsTheKeptCube) {
   const std::filesystem::path cube = dir_ / "t.curvebench.cube";
   ASSERT_FALSE(std::filesystem::exists(cube));
