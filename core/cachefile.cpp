@@ -4,6 +4,7 @@
 
 #include <chrono>
 #include <fstream>
+#include <functional>
 #include <random>
 #include <system_error>
 
@@ -20,6 +21,10 @@
 
 namespace cb {
 namespace fs = std::filesystem;
+
+std::uint64_t cacheChecksum(std::string_view payload) {
+  return static_cast<std::uint64_t>(std::hash<std::string_view>{}(payload));
+}
 
 MappedFile::MappedFile(const fs::path &file) {
 #if CURVEBENCH_HAS_MMAP

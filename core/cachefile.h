@@ -2,11 +2,22 @@
 // cube): a file's bytes mapped read-only, and a file replaced in one step.
 #pragma once
 
+#include <cstddef>
+#include <cstdint>
 #include <filesystem>
 #include <string>
 #include <string_view>
 
 namespace cb {
+
+/// Both caches' headers are this long, and record this mark in the machine's byte order: a file
+/// from another byte order is ignored.
+constexpr std::size_t kCacheHeaderBytes = 64;
+constexpr std::uint32_t kCacheByteOrder = 0x01020304;
+
+/// The checksum of a cache's payload: libstdc++'s 64-bit MurmurHash (std::hash of a string
+/// view), fast, and enough to catch a damaged or half-written file.
+std::uint64_t cacheChecksum(std::string_view payload);
 
 /// A file's bytes mapped read-only (Linux MAP_POPULATE: the page cache mapped in one call, no
 /// copy); read into memory where there is no mmap. Empty when the file is missing or empty.

@@ -26,13 +26,6 @@ namespace fs = std::filesystem;
 namespace {
 constexpr std::array<char, 8> kMagic = {'C', 'B', 'C', 'U', 'B', 'E', '\0', '\0'};
 constexpr std::uint32_t kKeptCubeFormat = 1;
-constexpr std::uint32_t kByteOrder = 0x01020304; // a file from another byte order is ignored
-constexpr std::size_t kHeaderBytes = 64;
-
-std::uint64_t checksumOf(std::string_view payload) {
-  // As the snapshot's: libstdc++'s 64-bit MurmurHash, enough to catch a damaged file.
-  return static_cast<std::uint64_t>(std::hash<std::string_view>{}(payload));
-}
 
 class Writer {
 public:
@@ -102,7 +95,7 @@ class KeptCubeCodec {
 public:
   static std::string encode(std::uint64_t stamp, const KeptCube &kept) {
     Writer w;
-    w.bytes().assign(kHeaderBytes, '\0');
+    w.bytes().assign(kCacheHeaderBytes, '\0');
     const CurveCube &c = kept.cube;
     for (Date d : {*kept.bounds.newest, *kept.bounds.firstArrival, *kept.bounds.firstStay,
                    kept.lastStay, c.first_, c.last_, c.asOf_})
@@ -120,21 +113,21 @@ public:
     w.putArray(c.revenue_);
 
     std::string &bytes = w.bytes();
-    const std::string_view payload = std::string_view(bytes).substr(kHeaderBytes);
+    const std::string_view payload = std::string_view(bytes).substr(kCacheHeaderBytes);
     char *h = bytes.data();
     std::memcpy(h, kMagic.data(), kMagic.size());
     std::memcpy(h + 8, &kKeptCubeFormat, 4);
-    std::memcpy(h + 12, &kByteOrder, 4);
+    std::memcpy(h + 12, &kCacheByteOrder, 4);
     std::memcpy(h + 16, &stamp, 8);
     const std::uint64_t size = payload.size();
     std::memcpy(h + 24, &size, 8);
-    const std::uint64_t sum = checksumOf(payload);
+    const std::uint64_t sum = cacheChecksum(payload);
     std::memcpy(h + 32, &sum, 8);
     return std::move(bytes);
   }
 
   static std::optional<KeptCube> decode(std::string_view bytes, std::uint64_t stamp) {
-    if (bytes.size() < kHeaderBytes || std::memcmp(bytes.data(), kMagic.data(), 8) != 0)
+    if (bytes.size() < kCacheHeaderBytes || std::memcmp(bytes.data(), kMagic.data(), 8) != 0)
       return std::nullopt;
     Reader header(bytes.substr(8));
     const auto format = header.get<std::uint32_t>();
@@ -142,9 +135,9 @@ public:
     const auto fileStamp = header.get<std::uint64_t>();
     const auto size = header.get<std::uint64_t>();
     const auto sum = header.get<std::uint64_t>();
-    const std::string_view payload = bytes.substr(kHeaderBytes);
-    if (format != kKeptCubeFormat || order != kByteOrder || fileStamp != stamp ||
-        size != payload.size() || sum != checksumOf(payload))
+    const std::string_view payload = bytes.substr(kCacheHeaderBytes);
+    if (format != kKeptCubeFormat || order != kCacheByteOrder || fileStamp != stamp ||
+        size != payload.size() || sum != cacheChecksum(payload))
       return std::nullopt;
 
     Reader r(payload);
@@ -232,7 +225,7 @@ std::optional<KeptCube> readKeptCube(const fs::path &file, std::uint64_t stamp) 
   // The stamp first: a cube for other data is not worth checking whole.
   const std::string_view bytes = map.bytes();
   std::uint64_t fileStamp = 0;
-  if (bytes.size() < kHeaderBytes)
+  if (bytes.size() < kCacheHeaderBytes)
     return std::nullopt;
   std::memcpy(&fileStamp, bytes.data() + 16, 8);
   if (fileStamp != stamp)

@@ -39,9 +39,7 @@ namespace {
 
 constexpr std::array<char, 8> kMagic = {'C', 'B', 'R', 'S', 'N', 'A', 'P', '\0'};
 constexpr std::uint32_t kFormat = 2;
-constexpr std::uint32_t kByteOrder = 0x01020304; // a file from another byte order is ignored
 constexpr std::int32_t kNoDate = std::numeric_limits<std::int32_t>::min();
-constexpr std::size_t kHeaderBytes = 64;
 constexpr std::size_t kCodes = 5;
 // The bytes of one row outside its id and the texts.
 constexpr std::size_t kRowBytes = 4 + 1 + 4 * 4 + 4 + 8 + kCodes * 4 + 16;
@@ -70,12 +68,6 @@ template <class T> T load(const char *at) {
   T value;
   std::memcpy(&value, at, sizeof(T));
   return value;
-}
-
-std::uint64_t checksumOf(std::string_view payload) {
-  // libstdc++'s std::hash of a string view is a 64-bit MurmurHash: fast, and enough to catch a
-  // damaged or half-written file (the rename makes the latter unlikely anyway).
-  return static_cast<std::uint64_t>(std::hash<std::string_view>{}(payload));
 }
 
 /// A whole snapshot's bytes, built in one pass over the rows.
@@ -113,11 +105,11 @@ public:
       textBytes += 4 + t.size();
     const Layout at(n, idBytes);
     payloadBytes_ = at.texts + textBytes;
-    size_ = kHeaderBytes + payloadBytes_;
+    size_ = kCacheHeaderBytes + payloadBytes_;
     // Not zero-filled: every byte is written below.
     bytes_.reset(new char[size_]);
     adviseHugePages(bytes_.get(), size_);
-    char *p = bytes_.get() + kHeaderBytes;
+    char *p = bytes_.get() + kCacheHeaderBytes;
 
     // Second pass: every field into its column.
     std::size_t idPos = at.ids;
@@ -154,11 +146,11 @@ public:
     char *h = bytes_.get();
     std::memcpy(h, kMagic.data(), kMagic.size());
     store(h + 8, kFormat);
-    store(h + 12, kByteOrder);
+    store(h + 12, kCacheByteOrder);
     store(h + 16, stamp);
     store(h + 24, static_cast<std::uint64_t>(n));
     store(h + 32, static_cast<std::uint64_t>(payloadBytes_));
-    store(h + 40, checksumOf(std::string_view(p, payloadBytes_)));
+    store(h + 40, cacheChecksum(std::string_view(p, payloadBytes_)));
     store(h + 48, static_cast<std::uint64_t>(idBytes));
     store(h + 56, std::uint64_t{0});
   }
@@ -174,21 +166,21 @@ private:
 class Decoded {
 public:
   Decoded(std::string_view bytes, std::uint64_t stamp) {
-    if (bytes.size() < kHeaderBytes || std::memcmp(bytes.data(), kMagic.data(), kMagic.size()))
+    if (bytes.size() < kCacheHeaderBytes || std::memcmp(bytes.data(), kMagic.data(), kMagic.size()))
       return;
     const char *h = bytes.data();
     const auto count = load<std::uint64_t>(h + 24);
     const auto payloadBytes = load<std::uint64_t>(h + 32);
     const auto idBytes = load<std::uint64_t>(h + 48);
-    payload_ = bytes.substr(kHeaderBytes);
-    if (load<std::uint32_t>(h + 8) != kFormat || load<std::uint32_t>(h + 12) != kByteOrder ||
+    payload_ = bytes.substr(kCacheHeaderBytes);
+    if (load<std::uint32_t>(h + 8) != kFormat || load<std::uint32_t>(h + 12) != kCacheByteOrder ||
         load<std::uint64_t>(h + 16) != stamp || payloadBytes != payload_.size() ||
         load<std::uint64_t>(h + 56) != 0)
       return;
     // Sizes no file of this length could hold are refused before any arithmetic on them.
     if (count > payload_.size() / kRowBytes || idBytes > payload_.size())
       return;
-    if (checksumOf(payload_) != load<std::uint64_t>(h + 40))
+    if (cacheChecksum(payload_) != load<std::uint64_t>(h + 40))
       return;
     layout_ = Layout(static_cast<std::size_t>(count), static_cast<std::size_t>(idBytes));
     const std::size_t n = layout_.n;
@@ -296,7 +288,7 @@ std::optional<std::vector<Reservation>> rowsOf(const Decoded &in) {
 /// `stamp` (checked first: a snapshot for another stamp is not worth checking whole); else empty.
 std::string_view bytesFor(const MappedFile &map, std::uint64_t stamp) {
   const std::string_view bytes = map.bytes();
-  if (bytes.size() < kHeaderBytes || load<std::uint64_t>(bytes.data() + 16) != stamp)
+  if (bytes.size() < kCacheHeaderBytes || load<std::uint64_t>(bytes.data() + 16) != stamp)
     return {};
   return bytes;
 }
