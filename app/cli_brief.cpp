@@ -13,6 +13,7 @@
 #include <cstring>
 #include <filesystem>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -30,23 +31,24 @@ struct BriefArgs {
   std::string store, asOf, out;
 };
 
-/// curvebench-brief beside this program (Linux: /proc/self/exe), else the name alone, looked up
-/// on PATH.
-std::string briefProgram() {
+/// curvebench-brief beside this program (Linux: /proc/self/exe); nullopt when there is none.
+std::optional<std::string> briefBeside() {
   std::error_code ec;
   const std::filesystem::path self = std::filesystem::read_symlink("/proc/self/exe", ec);
-  if (!ec) {
-    const std::filesystem::path beside = self.parent_path() / "curvebench-brief";
-    if (std::filesystem::exists(beside, ec))
-      return beside.string();
-  }
-  return "curvebench-brief";
+  if (ec)
+    return std::nullopt;
+  const std::filesystem::path beside = self.parent_path() / "curvebench-brief";
+  if (!std::filesystem::exists(beside, ec))
+    return std::nullopt;
+  return beside.string();
 }
 
 int runBrief(const BriefArgs &a) {
 #if CURVEBENCH_HAS_EXEC
-  const std::string program = briefProgram();
-  std::vector<std::string> args = {program, a.store, "--out", a.out};
+  // Beside this program, else on PATH (a system without /proc).
+  const std::optional<std::string> beside = briefBeside();
+  const std::string program = beside.value_or("curvebench-brief");
+  std::vector<std::string> args = {program, a.store, "--out", a.out}; // the store first, always
   if (!a.asOf.empty()) {
     args.push_back("--as-of");
     args.push_back(a.asOf);
@@ -58,7 +60,7 @@ int runBrief(const BriefArgs &a) {
   std::fflush(stdout);
   std::fflush(stderr);
   ::execvp(program.c_str(), argv.data()); // returns only when it could not run
-  if (errno != ENOENT) {
+  if (beside || errno != ENOENT) {
     fmt::print(stderr, "curvebench brief: cannot run {}: {}\n", program, std::strerror(errno));
     return kUsageOrIo;
   }

@@ -62,8 +62,10 @@ CubeSource::CubeSource(const std::string &path, bool total) : store_(cb::Store::
   const std::filesystem::path file = cb::keptCubePathFor(store_->path());
   const std::uint64_t stamp = store_->reservationStamp();
   kept_ = cb::readKeptCube(file, stamp);
-  if (kept_)
+  if (kept_) {
+    keptStamp_ = stamp;
     return;
+  }
   reservations();
   // Kept only when no import came between the stamp and the rows (a new stamp each time): else
   // the file would name rows it was not built from.
@@ -81,7 +83,16 @@ CubeSource::CubeSource(const std::string &path, bool total) : store_(cb::Store::
 
 const std::vector<cb::Reservation> &CubeSource::reservations() {
   if (!loaded_) {
+    // After the kept cube was read (the defaults came from it), the rows must be of the same
+    // data: a write between the two (another program importing) is refused rather than mixed.
+    // The stamp changes with every write, so the same stamp before and after means none.
+    auto same = [&] { return !keptStamp_ || store_->reservationStamp() == *keptStamp_; };
+    const bool before = same();
     rows_ = store_->reservations();
+    if (!before || !same())
+      throw std::runtime_error(store_->path().string() +
+                               " changed while this command read it (another program wrote "
+                               "reservations); run the command again");
     loaded_ = true;
   }
   return rows_;

@@ -12,6 +12,7 @@
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
+#include <cstdint>
 #include <cstdio>
 #include <memory>
 #include <optional>
@@ -51,7 +52,9 @@ public:
   cb::Store &store() { return *store_; }
   /// The kept cube, when there is one (a total, and a store whose reservations stay a night).
   const std::optional<cb::KeptCube> &kept() const { return kept_; }
-  /// The reservations, loaded at the first call when the kept cube was read instead.
+  /// The reservations, loaded at the first call when the kept cube was read instead (then they
+  /// must be of the same data as the cube: std::runtime_error when another program wrote
+  /// reservations in between).
   const std::vector<cb::Reservation> &reservations();
   /// kept()->cubeFor(options) when it gives one, else CurveCube::build(reservations(), options).
   /// Asking for exactly the kept cube hands it over: kept() is empty afterwards.
@@ -62,6 +65,7 @@ private:
   std::optional<cb::KeptCube> kept_;
   std::vector<cb::Reservation> rows_;
   bool loaded_ = false;
+  std::optional<std::uint64_t> keptStamp_; ///< the stamp of the kept cube read from its file
 };
 /// The store's sales closures and denials: what unconstraining reads.
 cb::CensorSources censorSources(const cb::Store &store);

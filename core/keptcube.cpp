@@ -154,10 +154,18 @@ public:
     const auto by = r.get<std::uint32_t>();
     c.lateNoShow_ = r.get<std::uint32_t>() != 0;
     const auto series = r.get<std::uint32_t>();
-    const long long nights = static_cast<long long>(c.last_ - c.first_) + 1;
-    if (r.failed() || nights < 1 || c.maxDba_ < 0 ||
-        by > static_cast<std::uint32_t>(SeriesBy::RoomType) || series < 1 ||
-        series > std::numeric_limits<std::uint16_t>::max())
+    // What keptCubeOf makes, checked in 64-bit day numbers (a damaged date must not overflow):
+    // the total, every night stayed up to the newest date + kMaxDba, as of the newest date.
+    auto day = [](std::optional<Date> d) { return static_cast<std::int64_t>(d->days()); };
+    const std::int64_t first = c.first_.days(), last = c.last_.days();
+    const std::int64_t nights = last - first + 1;
+    if (r.failed() || by != static_cast<std::uint32_t>(SeriesBy::Total) || series != 1 ||
+        c.maxDba_ != KeptCube::kMaxDba || first != day(kept.bounds.firstStay) ||
+        c.asOf_ != *kept.bounds.newest || day(kept.bounds.firstArrival) > first ||
+        kept.lastStay.days() < first ||
+        last != std::min<std::int64_t>(kept.lastStay.days(),
+                                       day(kept.bounds.newest) + KeptCube::kMaxDba) ||
+        nights < 1 || nights > std::numeric_limits<std::int32_t>::max())
       return std::nullopt;
     c.nights_ = static_cast<int>(nights);
     c.by_ = static_cast<SeriesBy>(by);

@@ -154,6 +154,16 @@ TEST(KeptCube, FileKeepsEveryCellAndRefusesOtherDataAndDamage) {
     EXPECT_FALSE(cb::decodeKeptCube(damaged, 42)) << at;
   }
   EXPECT_FALSE(cb::decodeKeptCube(bytes + "x", 42)) << "a longer payload than the header says";
+  // Whole and checked, but not what keptCubeOf makes (a split; another reading date): refused.
+  KeptCube split = k;
+  CubeOptions o = k.cube.options();
+  o.by = SeriesBy::Segment;
+  split.cube = CurveCube::build(sample().reservations, o);
+  EXPECT_FALSE(cb::decodeKeptCube(cb::encodeKeptCube(42, split), 42));
+  KeptCube earlier = k;
+  earlier.cube =
+      k.cube.narrowed({o.firstNight, o.lastNight, o.maxDba, SeriesBy::Total, *k.bounds.newest - 1});
+  EXPECT_FALSE(cb::decodeKeptCube(cb::encodeKeptCube(42, earlier), 42));
 
   cbtest::TempDir dir;
   const fs::path file = cb::keptCubePathFor(dir / "h.curvebench");
