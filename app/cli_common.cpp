@@ -109,10 +109,9 @@ cb::CurveCube CubeSource::cube(const cb::CubeOptions &options) {
       kept_.reset();
       return c;
     }
-  }
-  if (kept_)
     if (std::optional<cb::CurveCube> c = kept_->cubeFor(options))
       return std::move(*c);
+  }
   return cb::CurveCube::build(reservations(), options);
 }
 

@@ -53,25 +53,15 @@ Request prepare(const CurvesArgs &a, int maxDba, LastUseful lastUseful) {
   Request req;
   req.options.by = *cb::parseSeriesBy(a.by);
   req.source = std::make_unique<CubeSource>(a.store, req.options.by == cb::SeriesBy::Total);
-  std::optional<cb::Date> newest, firstNight, lastNight;
-  if (const auto &kept = req.source->kept()) {
-    newest = kept->bounds.newest;
-    firstNight = kept->bounds.firstStay;
-    lastNight = kept->lastStay;
-  } else {
-    const std::vector<cb::Reservation> &rows = req.source->reservations();
-    newest = cb::newestActivity(rows);
-    if (!newest)
-      throw std::runtime_error(a.store + " has no reservations, so there are no curves yet");
-    for (const auto &r : rows) {
-      if (r.isDayUse())
-        continue;
-      firstNight = firstNight ? std::min(*firstNight, r.arrival) : r.arrival;
-      lastNight = lastNight ? std::max(*lastNight, r.departure - 1) : r.departure - 1;
-    }
-    if (!firstNight)
-      throw std::runtime_error(a.store + " has only day-use reservations, which occupy no night");
-  }
+  const auto &kept = req.source->kept();
+  const cb::ReservationBounds bounds =
+      kept ? kept->bounds : cb::boundsOf(req.source->reservations());
+  const std::optional<cb::Date> newest = bounds.newest, firstNight = bounds.firstStay,
+                                lastNight = bounds.lastStay;
+  if (!newest)
+    throw std::runtime_error(a.store + " has no reservations, so there are no curves yet");
+  if (!firstNight)
+    throw std::runtime_error(a.store + " has only day-use reservations, which occupy no night");
   const cb::Date asOf = optionalDate(a.asOf).value_or(*newest);
   req.options.asOf = optionalDate(a.asOf); // the cube refuses a date after the data
   req.options.firstNight = optionalDate(a.from).value_or(*firstNight);

@@ -170,6 +170,8 @@ ReservationBounds boundsOf(const std::vector<Reservation> &reservations) {
       b.firstArrival = r.arrival;
     if (!r.isDayUse() && (!b.firstStay || r.arrival < *b.firstStay))
       b.firstStay = r.arrival;
+    if (!r.isDayUse() && (!b.lastStay || r.departure - 1 > *b.lastStay))
+      b.lastStay = r.departure - 1;
   }
   return b;
 }

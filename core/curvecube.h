@@ -50,6 +50,7 @@ struct ReservationBounds {
   std::optional<Date> newest;       ///< newestActivity()
   std::optional<Date> firstArrival; ///< the earliest arrival of any reservation
   std::optional<Date> firstStay;    ///< the earliest arrival of one that stays a night
+  std::optional<Date> lastStay;     ///< the last night any reservation stays (departure − 1)
 };
 ReservationBounds boundsOf(const std::vector<Reservation> &reservations);
 

@@ -98,7 +98,7 @@ public:
     w.bytes().assign(kCacheHeaderBytes, '\0');
     const CurveCube &c = kept.cube;
     for (Date d : {*kept.bounds.newest, *kept.bounds.firstArrival, *kept.bounds.firstStay,
-                   kept.lastStay, c.first_, c.last_, c.asOf_})
+                   *kept.bounds.lastStay, c.first_, c.last_, c.asOf_})
       w.put(d.days());
     w.put(static_cast<std::int32_t>(c.maxDba_));
     w.put(static_cast<std::uint32_t>(c.by_));
@@ -145,7 +145,7 @@ public:
     kept.bounds.newest = r.getDate();
     kept.bounds.firstArrival = r.getDate();
     kept.bounds.firstStay = r.getDate();
-    kept.lastStay = r.getDate();
+    kept.bounds.lastStay = r.getDate();
     CurveCube &c = kept.cube;
     c.first_ = r.getDate();
     c.last_ = r.getDate();
@@ -162,8 +162,8 @@ public:
     if (r.failed() || by != static_cast<std::uint32_t>(SeriesBy::Total) || series != 1 ||
         c.maxDba_ != KeptCube::kMaxDba || first != day(kept.bounds.firstStay) ||
         c.asOf_ != *kept.bounds.newest || day(kept.bounds.firstArrival) > first ||
-        kept.lastStay.days() < first ||
-        last != std::min<std::int64_t>(kept.lastStay.days(),
+        kept.bounds.lastStay->days() < first ||
+        last != std::min<std::int64_t>(kept.bounds.lastStay->days(),
                                        day(kept.bounds.newest) + KeptCube::kMaxDba) ||
         nights < 1 || nights > std::numeric_limits<std::int32_t>::max())
       return std::nullopt;
@@ -199,13 +199,9 @@ std::optional<KeptCube> keptCubeOf(const std::vector<Reservation> &reservations)
   kept.bounds = boundsOf(reservations);
   if (!kept.bounds.firstStay)
     return std::nullopt;
-  kept.lastStay = *kept.bounds.firstStay;
-  for (const Reservation &r : reservations)
-    if (!r.isDayUse())
-      kept.lastStay = std::max(kept.lastStay, r.departure - 1);
   CubeOptions o;
   o.firstNight = *kept.bounds.firstStay;
-  o.lastNight = std::min(kept.lastStay, *kept.bounds.newest + KeptCube::kMaxDba);
+  o.lastNight = std::min(*kept.bounds.lastStay, *kept.bounds.newest + KeptCube::kMaxDba);
   if (o.lastNight < o.firstNight)
     return std::nullopt;
   o.maxDba = KeptCube::kMaxDba;

@@ -31,10 +31,9 @@ std::filesystem::path keptCubePathFor(const std::filesystem::path &store);
 /// reservations without reading them.
 struct KeptCube {
   static constexpr int kMaxDba = 365;
-  ReservationBounds bounds; ///< all three set
-  Date lastStay;            ///< the last night any reservation stays
-  /// Nights from bounds.firstStay to lastStay, but no later than bounds.newest + kMaxDba (later
-  /// nights have no known cell); leads 0 … kMaxDba; reading date bounds.newest.
+  ReservationBounds bounds; ///< all four set
+  /// Nights from bounds.firstStay to bounds.lastStay, but no later than bounds.newest + kMaxDba
+  /// (later nights have no known cell); leads 0 … kMaxDba; reading date bounds.newest.
   CurveCube cube;
 
   /// The cube CurveCube::build(reservations, options) gives (options.asOf unset: the newest

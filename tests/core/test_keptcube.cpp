@@ -44,7 +44,7 @@ void expectSameKept(const KeptCube &a, const KeptCube &b) {
   EXPECT_EQ(a.bounds.newest, b.bounds.newest);
   EXPECT_EQ(a.bounds.firstArrival, b.bounds.firstArrival);
   EXPECT_EQ(a.bounds.firstStay, b.bounds.firstStay);
-  EXPECT_EQ(a.lastStay, b.lastStay);
+  EXPECT_EQ(a.bounds.lastStay, b.bounds.lastStay);
   expectSameCube(a.cube, b.cube);
 }
 
@@ -61,7 +61,7 @@ TEST(KeptCube, IsTheTotalOverEveryNightStayedAsOfTheNewestDate) {
   for (const Reservation &r : rows)
     if (!r.isDayUse())
       last = std::max(last, r.departure - 1);
-  EXPECT_EQ(k.lastStay, last);
+  EXPECT_EQ(k.bounds.lastStay, last);
   const CubeOptions o{*b.firstStay, std::min(last, *b.newest + 365), 365, SeriesBy::Total,
                       b.newest};
   expectSameCube(k.cube, CurveCube::build(rows, o));
@@ -75,13 +75,14 @@ TEST(KeptCube, GivesTheCubesTheCommandsAskFor) {
   const Date newest = *k.bounds.newest;
   std::vector<CubeOptions> asked = {
       // curves with its defaults, then with --as-of a month back
-      {*k.bounds.firstStay, std::min(k.lastStay, newest + 365), 365, SeriesBy::Total, std::nullopt},
+      {*k.bounds.firstStay, std::min(*k.bounds.lastStay, newest + 365), 365, SeriesBy::Total,
+       std::nullopt},
       {*k.bounds.firstStay, newest - 30 + 365, 365, SeriesBy::Total, newest - 30},
       // finals (no leads), --from / --to and --max-dba
       {*k.bounds.firstStay, newest, 0, SeriesBy::Total, std::nullopt},
       {newest - 100, newest + 50, 90, SeriesBy::Total, newest - 7},
       // nights before the first night stayed and after the last
-      {*k.bounds.firstStay - 40, k.lastStay + 40, 60, SeriesBy::Total, std::nullopt},
+      {*k.bounds.firstStay - 40, *k.bounds.lastStay + 40, 60, SeriesBy::Total, std::nullopt},
   };
   cb::BacktestOptions bo;
   bo.from = newest - 365;
@@ -124,7 +125,7 @@ TEST(KeptCube, DayUsesAndNoNightStayed) {
   ASSERT_TRUE(k);
   EXPECT_EQ(k->bounds.firstArrival, d("2026-03-05"));
   EXPECT_EQ(k->bounds.firstStay, d("2026-03-10"));
-  EXPECT_EQ(k->lastStay, d("2026-03-13"));
+  EXPECT_EQ(k->bounds.lastStay, d("2026-03-13"));
   cb::BacktestOptions bo;
   bo.from = d("2026-03-06");
   bo.to = d("2026-03-08");
