@@ -21,7 +21,7 @@ ReservationWriter::ReservationWriter(Store &store, std::int64_t importId, Writte
 ReservationWriter::~ReservationWriter() { abandon(); }
 
 void ReservationWriter::write(Row &row) {
-  switch (store_.upsertReservation(row.r, importId_, row.stored)) {
+  switch (store_.upsertReservation(row.r, importId_, row.stored, row.digest)) {
   case UpsertResult::Added: ++counts_.added; break;
   case UpsertResult::Updated: ++counts_.updated; break;
   case UpsertResult::Unchanged: ++counts_.unchanged; return;
@@ -31,12 +31,13 @@ void ReservationWriter::write(Row &row) {
 }
 
 void ReservationWriter::add(Reservation &&r, bool stored) {
+  const ReservationDigest digest = digestOf(r);
   if (!thread_.joinable()) {
-    Row row{std::move(r), stored};
+    Row row{std::move(r), stored, digest};
     write(row);
     return;
   }
-  filling_.push_back(Row{std::move(r), stored});
+  filling_.push_back(Row{std::move(r), stored, digest});
   if (filling_.size() >= kBatchRows)
     hand(false);
 }

@@ -50,6 +50,7 @@ private:
   struct Row {
     Reservation r;
     bool stored = false;
+    ReservationDigest digest; ///< digestOf(r), worked out in add(), on the caller's thread
   };
   using Batch = std::vector<Row>;
   static constexpr std::size_t kBatchRows = 4096;

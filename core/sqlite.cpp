@@ -233,7 +233,7 @@ SqliteDb::SqliteDb(const std::filesystem::path &path, Mode mode) : path_(path) {
   }
   sqlite3_extended_result_codes(db_, 1);
   // A second program (GUI and command line on the same store) waits briefly instead of failing.
-  sqlite3_busy_timeout(db_, 5000);
+  sqlite3_busy_timeout(db_, busyMs_);
 }
 
 SqliteDb::~SqliteDb() { sqlite3_close_v2(db_); }
@@ -284,6 +284,9 @@ bool SqliteDb::inTransaction() const { return sqlite3_get_autocommit(db_) == 0; 
 
 bool SqliteDb::readOnly() const { return sqlite3_db_readonly(db_, "main") == 1; }
 
-void SqliteDb::setBusyTimeout(int milliseconds) { sqlite3_busy_timeout(db_, milliseconds); }
+void SqliteDb::setBusyTimeout(int milliseconds) {
+  sqlite3_busy_timeout(db_, milliseconds);
+  busyMs_ = milliseconds;
+}
 
 } // namespace cb

@@ -110,11 +110,13 @@ public:
   bool readOnly() const;
   /// How long a statement waits for another program's lock before failing (default 5 s).
   void setBusyTimeout(int milliseconds);
+  int busyTimeout() const { return busyMs_; }
   const std::filesystem::path &path() const { return path_; }
 
 private:
   std::filesystem::path path_;
   sqlite3 *db_ = nullptr;
+  int busyMs_ = 5000;
 };
 
 } // namespace cb

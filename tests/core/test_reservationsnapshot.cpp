@@ -277,7 +277,7 @@ TEST_F(SnapshotStoreTest, OlderStoreGetsAStampWhenMigrated) {
   p.capacity = 10;
   Store::createAtVersionForTesting(path, p, 7);
   auto store = Store::open(path);
-  EXPECT_EQ(store->schemaVersion(), 8);
+  EXPECT_EQ(store->schemaVersion(), Store::kSchemaVersion);
   const std::uint64_t stamp = store->reservationStamp();
   {
     Store::Transaction t(*store);
