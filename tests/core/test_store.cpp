@@ -767,4 +767,25 @@ TEST_F(StoreTest, ReferenceCodesAreDeletedOnlyWhenNothingUsesThem) {
   EXPECT_EQ(store->channels(), (std::vector<cb::Channel>{{"DIRECT", ""}}));
 }
 
+TEST_F(StoreTest, ReservationsHaveNoIndexOnTheSegmentFromSchema9) {
+  auto indexCount = [](cb::SqliteDb &db) {
+    return db.queryInt64("SELECT count(*) FROM sqlite_master WHERE type = 'index' AND name = "
+                         "'reservations_segment'");
+  };
+  {
+    auto store = Store::create(path, sampleProperty());
+    EXPECT_EQ(indexCount(store->sqliteForTesting()), 0);
+  }
+  fs::remove(path);
+  Store::createAtVersionForTesting(path, sampleProperty(), 8);
+  {
+    cb::SqliteDb db(path, cb::SqliteDb::Mode::OpenExisting);
+    EXPECT_EQ(indexCount(db), 1); // schema 8 had it
+  }
+  auto store = Store::open(path);
+  EXPECT_EQ(store->schemaVersion(), 9);
+  EXPECT_EQ(indexCount(store->sqliteForTesting()), 0);
+  EXPECT_EQ(store->sqliteForTesting().queryText("PRAGMA integrity_check"), "ok");
+}
+
 } // namespace

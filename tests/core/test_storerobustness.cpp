@@ -260,4 +260,138 @@ TEST_F(StoreRobustness, SecondWindowOnOneStoreOpensReadOnlyAndSaysSo) {
   EXPECT_FALSE(cli->readOnly());
 }
 
+// What an import's progress callback saw of the files beside the store: the rollback journal
+// of Store::DirectWrite ("<store>-journal") or the write-ahead log ("<store>-wal").
+struct LogFilesSeen {
+  fs::path store;
+  bool journal = false;
+  bool wal = false;
+  static bool look(void *context, std::int64_t, std::int64_t) {
+    auto &seen = *static_cast<LogFilesSeen *>(context);
+    std::error_code ec;
+    seen.journal = seen.journal || fs::exists(seen.store.string() + "-journal", ec);
+    seen.wal = seen.wal || fs::exists(seen.store.string() + "-wal", ec);
+    return true;
+  }
+};
+
+TEST_F(StoreRobustness, FirstImportGoesThroughTheRollbackJournalAndLeavesTheStoreInWalMode) {
+  {
+    cb::Property p;
+    p.name = "Robust house";
+    p.capacity = 120;
+    cb::Store::create(path, p);
+  }
+  writeRows(dir / "rows.csv", 20'000);
+  auto store = cb::Store::open(path);
+  LogFilesSeen seen{path};
+  cb::ImportOptions options;
+  options.progress = &LogFilesSeen::look;
+  options.progressContext = &seen;
+  ASSERT_TRUE(cb::importReservations(*store, dir / "rows.csv", options).written);
+  EXPECT_TRUE(seen.journal); // each page written once, into the store itself
+  EXPECT_FALSE(seen.wal);
+  auto &db = store->sqliteForTesting();
+  EXPECT_EQ(db.queryText("PRAGMA journal_mode"), "wal"); // back to the log once committed
+  EXPECT_EQ(db.queryInt64("PRAGMA synchronous"), 1);     // NORMAL again (SQLite PRAGMA docs)
+  EXPECT_EQ(db.queryText("PRAGMA integrity_check"), "ok");
+  EXPECT_EQ(store->reservationCount(), 20'000);
+  EXPECT_FALSE(fs::exists(path.string() + "-journal"));
+
+  // The next import (the store holds reservations now) goes through the log as always.
+  writeRows(dir / "more.csv", 5'000, 20'000);
+  seen = LogFilesSeen{path};
+  ASSERT_TRUE(cb::importReservations(*store, dir / "more.csv", options).written);
+  EXPECT_TRUE(seen.wal);
+  EXPECT_FALSE(seen.journal);
+  EXPECT_EQ(store->reservationCount(), 25'000);
+  store.reset();
+  auto again = cb::Store::open(path, cb::Store::Access::ReadOnly);
+  EXPECT_EQ(again->reservationCount(), 25'000);
+}
+
+TEST_F(StoreRobustness, FirstImportWithTheStoreOpenElsewhereGoesThroughTheLog) {
+  {
+    cb::Property p;
+    p.name = "Robust house";
+    p.capacity = 120;
+    cb::Store::create(path, p);
+  }
+  auto reader = cb::Store::open(path, cb::Store::Access::ReadOnly); // the workbench, say
+  EXPECT_EQ(reader->reservationCount(), 0);
+  auto store = cb::Store::open(path);
+  {
+    cb::Store::DirectWrite direct(*store);
+    EXPECT_FALSE(direct.active()); // SQLite cannot leave WAL mode while another connection reads
+  }
+  writeRows(dir / "rows.csv", 10'000);
+  LogFilesSeen seen{path};
+  cb::ImportOptions options;
+  options.progress = &LogFilesSeen::look;
+  options.progressContext = &seen;
+  ASSERT_TRUE(cb::importReservations(*store, dir / "rows.csv", options).written);
+  EXPECT_TRUE(seen.wal);
+  EXPECT_FALSE(seen.journal);
+  EXPECT_EQ(store->sqliteForTesting().queryText("PRAGMA journal_mode"), "wal");
+  EXPECT_EQ(reader->reservationCount(), 10'000); // the other connection sees the commit
+}
+
+TEST_F(StoreRobustness, FirstImportCutShortIsUndoneAtTheNextOpen) {
+  {
+    cb::Property p;
+    p.name = "Robust house";
+    p.capacity = 120;
+    cb::Store::create(path, p);
+  }
+  const auto emptySize = fs::file_size(path);
+  const pid_t child = fork();
+  ASSERT_GE(child, 0);
+  if (child == 0) {
+    // A first import that dies halfway: its rows partly written into the store file itself
+    // (a page cache of 8 pages spills them), the rollback journal beside it.
+    try {
+      auto store = cb::Store::open(path);
+      cb::Store::DirectWrite direct(*store);
+      if (!direct.active())
+        _exit(3);
+      cb::Store::Transaction tx(*store);
+      store->sqliteForTesting().exec("PRAGMA cache_size = 8");
+      for (int i = 0; i < 20'000; ++i) {
+        cb::Reservation r;
+        r.id = fmt::format("R{:06}", i);
+        r.status = cb::ReservationStatus::Booked;
+        r.arrival = cb::Date::fromYmd(2025, 1, 1) + i % 700;
+        r.departure = r.arrival + 2;
+        r.bookedOn = r.arrival - 30;
+        r.rooms = 1;
+        r.segment = "LEIS";
+        r.rate = 100;
+        store->upsertReservation(r, 0);
+      }
+      std::error_code ec;
+      const bool journal = fs::exists(path.string() + "-journal", ec);
+      const bool grown = fs::file_size(path, ec) > 4 * emptySize;
+      _exit(journal && grown ? 0 : 4); // no commit, no clean-up: as a crash leaves it
+    } catch (...) {
+      _exit(5);
+    }
+  }
+  int status = 0;
+  ASSERT_EQ(waitpid(child, &status, 0), child);
+  ASSERT_TRUE(WIFEXITED(status));
+  ASSERT_EQ(WEXITSTATUS(status), 0) << "the child did not leave a half-written store";
+  ASSERT_TRUE(fs::exists(path.string() + "-journal"));
+
+  auto store = cb::Store::open(path); // not refused as cut short: SQLite undoes the write
+  EXPECT_EQ(store->reservationCount(), 0);
+  auto &db = store->sqliteForTesting();
+  EXPECT_EQ(db.queryText("PRAGMA journal_mode"), "wal");
+  EXPECT_EQ(db.queryText("PRAGMA integrity_check"), "ok");
+  EXPECT_FALSE(fs::exists(path.string() + "-journal"));
+  // And the import can simply be run again.
+  writeRows(dir / "rows.csv", 3'000);
+  ASSERT_TRUE(cb::importReservations(*store, dir / "rows.csv").written);
+  EXPECT_EQ(store->reservationCount(), 3'000);
+}
+
 } // namespace
