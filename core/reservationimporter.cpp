@@ -103,6 +103,11 @@ struct IdState {
 class IdIndex {
 public:
   explicit IdIndex(std::size_t expected) : expected_(expected) { states_.reserve(expected); }
+  /// `more` ids to come on top of those expected so far.
+  void expect(std::size_t more) {
+    expected_ += more;
+    states_.reserve(expected_);
+  }
 
   void addStored(std::string &&id, const ReservationDigest &digest) {
     states_.push_back(IdState{std::move(id), digest, true, 0});
@@ -394,21 +399,15 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   }
 
   // The first import into a store writes all of it: each page once, not through the log and
-  // then the checkpoint (Store::DirectWrite; 4.6 s -> ? s for a million rows, measured).
+  // then the checkpoint (Store::DirectWrite; with the other changes of that round, 4.5-4.9 s ->
+  // 3.2-3.6 s for a million rows, measured).
   if (!options.dryRun && !store.hasReservations())
     direct.emplace(store);
   tx.emplace(store);
   log.id = store.beginImport(log);
-  // The rows written, kept to bring the store's snapshot up to date after the commit
-  // (core/reservationsnapshot.h) without reading a million rows back. Into an empty store they
-  // are all kept (they are the whole snapshot: 232 MB at a million rows); else beyond a quarter
-  // of the store (or 100,000 rows) they are not, and the next read rebuilds the snapshot.
   const std::uint64_t stampBefore = store.reservationStamp();
-  const std::int64_t storedBefore = store.reservationCount();
-  const std::size_t keepAtMost =
-      storedBefore == 0
-          ? std::numeric_limits<std::size_t>::max()
-          : static_cast<std::size_t>(std::max<std::int64_t>(100000, storedBefore / 4));
+  // Not count(*): without an index beside it that reads the whole table (schema 9).
+  const bool emptyBefore = !store.hasReservations();
   std::vector<Reservation> written;
   // Not for a dry run (nothing is written), and given up without failing the import when memory
   // runs short: the snapshot is only a cache.
@@ -418,8 +417,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
     std::vector<Reservation>().swap(written);
   };
   try {
-    if (storedBefore == 0 && writtenComplete) // about one row per 80 bytes of a native file;
-      reserveLarge(written,                   // growing the vector cost 5 % of the import
+    if (emptyBefore && writtenComplete) // about one row per 80 bytes of a native file;
+      reserveLarge(written,             // growing the vector cost 5 % of the import
                    static_cast<std::size_t>(std::max<std::int64_t>(fileSize, 0) / 80));
   } catch (const std::bad_alloc &) {
     giveUpSnapshot();
@@ -430,11 +429,21 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   // unchanged row costs no query, a new one goes straight to INSERT, and a duplicate id within
   // the file is found in the same lookup. About one id per 64 bytes of file, on top of the
   // stored ones, so the index rarely grows.
-  IdIndex ids(static_cast<std::size_t>(store.reservationCount() +
-                                       std::max<std::int64_t>(fileSize, 0) / 64));
-  store.visitReservationDigests([&](std::string &&id, const ReservationDigest &digest) {
-    ids.addStored(std::move(id), digest);
-  });
+  IdIndex ids(static_cast<std::size_t>(std::max<std::int64_t>(fileSize, 0) / 64));
+  std::int64_t storedBefore = 0;
+  store.visitReservationDigests(
+      [&](std::string &&id, const ReservationDigest &digest) {
+        ids.addStored(std::move(id), digest);
+        ++storedBefore;
+      },
+      [&](std::size_t rows) { ids.expect(rows); });
+  // The rows written, kept to bring the store's snapshot up to date after the commit
+  // (core/reservationsnapshot.h) without reading a million rows back. Into an empty store they
+  // are all kept (they are the whole snapshot: 232 MB at a million rows); else beyond a quarter
+  // of the store (or 100,000 rows) they are not, and the next read rebuilds the snapshot.
+  const std::size_t keepAtMost =
+      emptyBefore ? std::numeric_limits<std::size_t>::max()
+                  : static_cast<std::size_t>(std::max<std::int64_t>(100000, storedBefore / 4));
   auto keep = [&](auto &&row) {
     if (!writtenComplete)
       return;
@@ -451,7 +460,7 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   // checked below), so this thread keeps a copy of each as it hands it over: the writer's thread
   // is the slower of the two, and first touching the kept rows' 232 MB (page faults) was 7 % of
   // its work at a million rows (perf). Else only the writer knows which rows the store took.
-  const bool keepHere = storedBefore == 0;
+  const bool keepHere = emptyBefore;
   // From here to writer->finish() the store belongs to the writer's thread.
   writer.emplace(
       store, log.id,
@@ -589,7 +598,7 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
           }
         };
         try {
-          if (storedBefore == 0) {
+          if (emptyBefore) {
             std::sort(written.begin(), written.end(),
                       [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
             writeReservationSnapshot(snapshot, stampAfter, written);

@@ -317,7 +317,8 @@ std::optional<std::vector<Reservation>> readReservationSnapshot(const fs::path &
 
 bool visitSnapshotDigests(
     const fs::path &file, std::uint64_t stamp,
-    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) {
+    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit,
+    const std::function<void(std::size_t rows)> &count) {
   const MappedFile map(file);
   const std::string_view bytes = bytesFor(map, stamp);
   if (bytes.empty())
@@ -325,6 +326,8 @@ bool visitSnapshotDigests(
   const Decoded in(bytes, stamp);
   if (!in.ok())
     return false;
+  if (count)
+    count(in.size());
   in.forEachId([&](std::size_t i, std::string_view id) { visit(std::string(id), in.digest(i)); });
   return true;
 }

@@ -34,9 +34,11 @@ std::optional<std::vector<Reservation>> readReservationSnapshot(const std::files
 /// Calls `visit` with the id and digest (digestOf) of every row of the snapshot at `file`, in id
 /// order, when it is whole and was written for `stamp`, and returns true; false (nothing
 /// visited) otherwise. What an import compares its rows with, without reading the rows.
+/// `count`, when given, is called first with the number of rows `visit` will see.
 bool visitSnapshotDigests(
     const std::filesystem::path &file, std::uint64_t stamp,
-    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit);
+    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit,
+    const std::function<void(std::size_t rows)> &count = {});
 
 /// Writes `rows` (in the order given) as the snapshot for `stamp`: to a temporary file in the
 /// same folder, then renamed over `file`. Returns false (and leaves any old file as it was) when

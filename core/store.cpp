@@ -967,11 +967,14 @@ UpsertResult Store::upsertReservation(const Reservation &r, std::int64_t importI
 }
 
 void Store::visitReservationDigests(
-    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) const {
+    const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit,
+    const std::function<void(std::size_t rows)> &count) const {
   // The snapshot holds every row's digest too, and reads far faster than the table; inside the
   // import's own transaction, so the stamp is that of the rows the import will compare with.
-  if (visitSnapshotDigests(snapshotPathFor(path_), reservationStamp(), visit))
+  if (visitSnapshotDigests(snapshotPathFor(path_), reservationStamp(), visit, count))
     return;
+  if (count)
+    count(static_cast<std::size_t>(reservationCount()));
   // The fields are read only for a row written before digests were kept (schema 6 and older).
   auto st = db_->prepare(fmt::format("SELECT {}, digest FROM reservations", kReservationColumns));
   constexpr int kDigestColumn = 13;

@@ -192,9 +192,12 @@ public:
   UpsertResult upsertReservation(const Reservation &r, std::int64_t importId, bool stored,
                                  const ReservationDigest &digest);
   /// Calls `visit` with every stored reservation's id and digest, in id order: from the
-  /// snapshot when it is current, else in one pass of the table.
+  /// snapshot when it is current, else in one pass of the table. `count`, when given, is called
+  /// first with the number of reservations `visit` will see (from the snapshot's header, or
+  /// counted in the table).
   void visitReservationDigests(
-      const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit) const;
+      const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit,
+      const std::function<void(std::size_t rows)> &count = {}) const;
   /// Every reservation, ordered by id. Read from the snapshot beside the store when it was
   /// written for the current reservationStamp() (core/reservationsnapshot.h), else from the
   /// table, and then the snapshot is written again (unless the store is read-only).
