@@ -120,7 +120,7 @@ int runForecast(const ForecastArgs &a) {
   req.unconstrain = cb::historyOptions(property, a.flags.naiveHistory);
   req.censoring = &sources;
   cb::ForecastRun run = cb::ForecastRun::compute(rows, property, req);
-  run.dataVersion = cb::ForecastRun::dataVersionOf(*store);
+  run.dataVersion = cb::ForecastRun::dataVersionOf(*store, rows.size());
   const std::int64_t id = run.save(*store);
 
   fmt::memory_buffer out;

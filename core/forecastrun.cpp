@@ -351,12 +351,12 @@ ForecastRun ForecastRun::compute(const std::vector<Reservation> &reservations,
   return run;
 }
 
-std::string ForecastRun::dataVersionOf(Store &store) {
+std::string ForecastRun::dataVersionOf(Store &store, std::size_t reservations) {
   std::int64_t importId = 0;
   for (const ImportLogEntry &e : store.importLog())
     if (e.outcome.empty() || e.outcome == "written")
       importId = std::max(importId, e.id);
-  return "import " + std::to_string(importId) + ", " + std::to_string(store.reservationCount()) +
+  return "import " + std::to_string(importId) + ", " + std::to_string(reservations) +
          " reservations";
 }
 

@@ -107,8 +107,9 @@ public:
   static ForecastRun compute(const std::vector<Reservation> &reservations, const Property &property,
                              const ForecastRequest &request);
 
-  /// "import 7, 79330 reservations": the newest written import and the reservation count.
-  static std::string dataVersionOf(Store &store);
+  /// "import 7, 79330 reservations": the newest written import and `reservations`, the number of
+  /// reservations the run read (the caller has them; counting the table would read all of it).
+  static std::string dataVersionOf(Store &store, std::size_t reservations);
   /// Saves the run and its values (one transaction); sets id and, when empty, createdAt.
   std::int64_t save(Store &store);
   /// Every stored run with its values, oldest first.

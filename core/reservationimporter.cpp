@@ -541,6 +541,11 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   {
     const ReservationWriter::Counts counts = writer->finish();
     writer.reset();
+    // The rows kept on this thread are those handed over; into an empty store every one of them
+    // is added. Should that ever not hold, the snapshot is not written from them.
+    if (keepHere && writtenComplete &&
+        (counts.updated != 0 || written.size() != static_cast<std::size_t>(counts.added)))
+      giveUpSnapshot();
     log.added += counts.added;
     log.updated += counts.updated;
     log.unchanged += counts.unchanged;

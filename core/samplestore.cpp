@@ -21,7 +21,7 @@ ImportReport buildSampleStore(const std::filesystem::path &storePath,
   // never leaves a half-filled store where the workbench would take it for the sample.
   std::filesystem::path partial = storePath;
   partial += ".partial";
-  for (const char *suffix : {"", "-wal", "-shm", ".snapshot", ".cube"})
+  for (const char *suffix : {"", "-wal", "-shm", "-journal", ".snapshot", ".cube"})
     std::filesystem::remove(partial.string() + suffix);
   auto store = Store::create(partial, sample.property);
   {

@@ -255,9 +255,12 @@ INSERT INTO data_stamps (name, stamp) VALUES ('reservations', random());
 
 // No index on the reservations' segment: every import paid for it at every row (a first import
 // of a million rows: 4.2 s with it, 3.6 s without, measured), and it served only the refusal to
-// delete a segment code still in use (Store::deleteSegment), which now reads the table once
-// (about 0.1 s at a million rows) on a rare, deliberate action. The engine reads every
-// reservation into memory and filters there; no query picks reservations by segment.
+// delete a segment code still in use (Store::deleteSegment), which now reads the table twice
+// (its own count, then SQLite's foreign-key check of the delete; tens of milliseconds each at a
+// million rows when the file is in the system's cache) on a rare, deliberate action, as room
+// types and channels always did. The engine reads every reservation into memory and filters
+// there; no query picks reservations by segment. Without the index count(*) reads the table too,
+// so hot paths do not count (an import counts the digests it reads).
 constexpr std::string_view kMigration9 = R"sql(
 DROP INDEX reservations_segment;
 )sql";
@@ -319,11 +322,15 @@ template <class F> void writeTransaction(SqliteDb &db, F &&write) {
 
 void configure(SqliteDb &db) {
   if (db.readOnly()) {
-    // A read-only connection cannot change the journal mode; a store is always in WAL mode.
+    // A read-only connection cannot change the journal mode. A store is in WAL mode but while a
+    // first import runs (Store::DirectWrite) or after one was cut short, until the next
+    // read-write open; SQLite reads it in either mode (but a read-only connection cannot undo
+    // a cut-short import: it reports the store as read-only until a read-write open has).
     db.exec("PRAGMA foreign_keys = ON");
     return;
   }
-  // WAL: the GUI can read while an import writes, and a crash keeps the last commit intact.
+  // WAL: the GUI can read while an import writes, and a crash keeps the last commit intact
+  // (but for the first import into an empty store, Store::DirectWrite).
   // synchronous=NORMAL is safe from corruption in WAL mode; at worst the newest commit is lost
   // on power failure, and an import can simply be re-run.
   if (db.queryText("PRAGMA journal_mode = WAL") != "wal")
@@ -813,16 +820,31 @@ Store::DirectWrite::DirectWrite(Store &store) : store_(store) {
     return;
   // Leaving WAL mode needs the store to ourselves; when another program has it open the
   // answer is "busy", which should come at once rather than after the usual 5 s wait.
-  const int wait = db.busyTimeout();
+  struct RestoreWait {
+    SqliteDb &db;
+    int wait;
+    ~RestoreWait() { db.setBusyTimeout(wait); }
+  } restore{db, db.busyTimeout()};
   db.setBusyTimeout(0);
   try {
+    db.exec("PRAGMA synchronous = FULL"); // the rollback journal's safe setting, set first
     active_ = db.queryText("PRAGMA journal_mode = DELETE") == "delete";
-    if (active_)
-      db.exec("PRAGMA synchronous = FULL"); // the rollback journal's safe setting
   } catch (const StoreError &) {
-    active_ = false; // busy: another connection has the store open; stays in WAL mode
+    // Busy: another connection has the store open, and the store stays in WAL mode. Should the
+    // error have come after the switch, the destructor still switches back.
+    try {
+      active_ = db.queryText("PRAGMA journal_mode") != "wal";
+    } catch (const StoreError &) {
+      active_ = false;
+    }
   }
-  db.setBusyTimeout(wait);
+  if (!active_) {
+    try {
+      db.exec("PRAGMA synchronous = NORMAL");
+    } catch (const StoreError &) {
+      // FULL stays: slower, never less safe.
+    }
+  }
 }
 
 Store::DirectWrite::~DirectWrite() {
@@ -830,10 +852,12 @@ Store::DirectWrite::~DirectWrite() {
     return;
   SqliteDb &db = *store_.db_;
   try {
-    db.exec("PRAGMA synchronous = NORMAL");
-    db.queryText("PRAGMA journal_mode = WAL");
+    // NORMAL only once back in WAL mode: with the rollback journal it is not crash-safe.
+    if (db.queryText("PRAGMA journal_mode = WAL") == "wal")
+      db.exec("PRAGMA synchronous = NORMAL");
   } catch (...) {
-    // The store stays in rollback-journal mode until the next read-write open (configure()).
+    // The store stays in rollback-journal mode (with FULL) until the next read-write open
+    // switches it back (configure()).
   }
 }
 

@@ -58,7 +58,8 @@ TEST(ForecastRun, NaiveValuesAndBandsThenStoredAndLoaded) {
     ASSERT_TRUE(v.sd) << h; // and the spread, the root mean square of those errors, is 0
     EXPECT_DOUBLE_EQ(*v.sd, 0.0);
   }
-  run.dataVersion = cb::ForecastRun::dataVersionOf(*store);
+  ASSERT_EQ(store->reservationCount(), 180);
+  run.dataVersion = cb::ForecastRun::dataVersionOf(*store, store->reservations().size());
   EXPECT_EQ(run.dataVersion, "import 0, 180 reservations");
   const std::int64_t id = run.save(*store);
   EXPECT_GT(id, 0);
