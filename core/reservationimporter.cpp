@@ -406,6 +406,8 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   tx.emplace(store);
   log.id = store.beginImport(log);
   const std::uint64_t stampBefore = store.reservationStamp();
+  // Asked again inside the transaction: the answer before it only picks the journal, this one
+  // decides what the snapshot is written from (another program may have imported in between).
   // Not count(*): without an index beside it that reads the whole table (schema 9).
   const bool emptyBefore = !store.hasReservations();
   std::vector<Reservation> written;
@@ -460,12 +462,11 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   // checked below), so this thread keeps a copy of each as it hands it over: the writer's thread
   // is the slower of the two, and first touching the kept rows' 232 MB (page faults) was 7 % of
   // its work at a million rows (perf). Else only the writer knows which rows the store took.
-  const bool keepHere = emptyBefore;
   // From here to writer->finish() the store belongs to the writer's thread.
-  writer.emplace(
-      store, log.id,
-      keepHere ? ReservationWriter::WrittenSink()
-               : ReservationWriter::WrittenSink([&](Reservation &&row) { keep(std::move(row)); }));
+  writer.emplace(store, log.id,
+                 emptyBefore ? ReservationWriter::WrittenSink()
+                             : ReservationWriter::WrittenSink(
+                                   [&](Reservation &&row) { keep(std::move(row)); }));
   bool rowErrors = false;
   std::int64_t listed = 0, unlisted = 0;
   CsvRecord rec;
@@ -506,7 +507,7 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
       if (idState && idState->inStore && idState->stored == digestOf(r)) {
         ++log.unchanged; // the same as stored: nothing to write
       } else if (lenient || !rowErrors) {
-        if (keepHere)
+        if (emptyBefore)
           keep(std::as_const(r));
         writer->add(std::move(r), idState && idState->inStore); // map() fills r afresh
       }
@@ -543,7 +544,7 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
     writer.reset();
     // The rows kept on this thread are those handed over; into an empty store every one of them
     // is added. Should that ever not hold, the snapshot is not written from them.
-    if (keepHere && writtenComplete &&
+    if (emptyBefore && writtenComplete &&
         (counts.updated != 0 || written.size() != static_cast<std::size_t>(counts.added)))
       giveUpSnapshot();
     log.added += counts.added;
