@@ -73,8 +73,11 @@ template <class T> T load(const char *at) {
 /// A whole snapshot's bytes, built in one pass over the rows.
 class Encoded {
 public:
-  Encoded(std::uint64_t stamp, const std::vector<Reservation> &rows) {
+  Encoded(std::uint64_t stamp, const std::vector<Reservation> &rows,
+          const std::vector<ReservationDigest> *digests) {
     const std::size_t n = rows.size();
+    if (digests && digests->size() != n)
+      digests = nullptr;
     // First pass: the id bytes, and each distinct code once (rows keep its index). Consecutive
     // rows mostly share their codes, so the map is asked only when a code changes.
     std::vector<std::string_view> texts{std::string_view()};
@@ -129,7 +132,7 @@ public:
       store(p + at.rate + 8 * i, r.rate == 0.0 ? 0.0 : r.rate);
       for (std::size_t k = 0; k < kCodes; ++k)
         store(p + at.code(k, i), codeOf[i][k]);
-      const ReservationDigest d = digestOf(r);
+      const ReservationDigest d = digests ? (*digests)[i] : digestOf(r);
       store(p + at.digests + 16 * i, d.a);
       store(p + at.digests + 16 * i + 8, d.b);
     }
@@ -297,8 +300,9 @@ std::string_view bytesFor(const MappedFile &map, std::uint64_t stamp) {
 
 fs::path snapshotPathFor(const fs::path &store) { return fs::path(store.string() + ".snapshot"); }
 
-std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows) {
-  return std::string(Encoded(stamp, rows).bytes());
+std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows,
+                                      const std::vector<ReservationDigest> *digests) {
+  return std::string(Encoded(stamp, rows, digests).bytes());
 }
 
 std::optional<std::vector<Reservation>> decodeReservationSnapshot(std::string_view bytes,
@@ -333,8 +337,9 @@ bool visitSnapshotDigests(
 }
 
 bool writeReservationSnapshot(const fs::path &file, std::uint64_t stamp,
-                              const std::vector<Reservation> &rows) {
-  const Encoded encoded(stamp, rows);
+                              const std::vector<Reservation> &rows,
+                              const std::vector<ReservationDigest> *digests) {
+  const Encoded encoded(stamp, rows, digests);
   return replaceFile(file, encoded.bytes());
 }
 

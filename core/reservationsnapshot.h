@@ -42,9 +42,12 @@ bool visitSnapshotDigests(
 
 /// Writes `rows` (in the order given) as the snapshot for `stamp`: to a temporary file in the
 /// same folder, then renamed over `file`. Returns false (and leaves any old file as it was) when
-/// the folder cannot be written.
+/// the folder cannot be written. `digests`, when given, holds digestOf of each row in the same
+/// order (an import has worked them out already); when absent, or not one per row, they are
+/// worked out here.
 bool writeReservationSnapshot(const std::filesystem::path &file, std::uint64_t stamp,
-                              const std::vector<Reservation> &rows);
+                              const std::vector<Reservation> &rows,
+                              const std::vector<ReservationDigest> *digests = nullptr);
 
 /// After a write that took the store from stamp `before` to `after` by adding or replacing the
 /// reservations `changed` (and nothing else): when the snapshot at `file` holds the rows of
@@ -59,7 +62,8 @@ bool updateReservationSnapshot(
     const std::function<void(const std::vector<Reservation> &rows)> &withRows = {});
 
 /// The snapshot's bytes for `stamp` (what writeReservationSnapshot writes), for tests.
-std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows);
+std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows,
+                                      const std::vector<ReservationDigest> *digests = nullptr);
 /// Decodes bytes made by encodeReservationSnapshot; nullopt when they are not a whole snapshot
 /// for `stamp`.
 std::optional<std::vector<Reservation>> decodeReservationSnapshot(std::string_view bytes,

@@ -32,6 +32,10 @@ void ReservationWriter::write(Row &row) {
 
 void ReservationWriter::add(Reservation &&r, bool stored) {
   const ReservationDigest digest = digestOf(r);
+  add(std::move(r), stored, digest);
+}
+
+void ReservationWriter::add(Reservation &&r, bool stored, const ReservationDigest &digest) {
   if (!thread_.joinable()) {
     Row row{std::move(r), stored, digest};
     write(row);

@@ -40,6 +40,8 @@ public:
   /// Queues one row (`stored`: the store already holds its id). Rethrows, here or at the next
   /// add(), what the store threw on the writer's thread; nothing more is written after it.
   void add(Reservation &&r, bool stored);
+  /// The same, with `digest` = digestOf(r) already worked out by the caller.
+  void add(Reservation &&r, bool stored, const ReservationDigest &digest);
   /// Writes what is queued, stops the thread and returns the counts; rethrows the writer's error.
   Counts finish();
   /// Stops without writing what is still queued (the caller rolls back); never throws.

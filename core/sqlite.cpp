@@ -110,6 +110,21 @@ void SqliteStatement::bindBlob(int index, const void *data, std::size_t size) {
   check(sqlite3_bind_blob64(stmt_, index, data, size, SQLITE_TRANSIENT));
 }
 
+void SqliteStatement::bindUncopied(int index, std::string_view text) {
+  check(sqlite3_bind_text64(stmt_, index, text.data(), text.size(), SQLITE_STATIC, SQLITE_UTF8));
+}
+
+void SqliteStatement::bindUncopiedOrNull(int index, std::string_view text) {
+  if (text.empty())
+    bind(index, nullptr);
+  else
+    bindUncopied(index, text);
+}
+
+void SqliteStatement::bindBlobUncopied(int index, const void *data, std::size_t size) {
+  check(sqlite3_bind_blob64(stmt_, index, data, size, SQLITE_STATIC));
+}
+
 void SqliteStatement::bind(int index, std::nullptr_t) { check(sqlite3_bind_null(stmt_, index)); }
 
 void SqliteStatement::bind(int index, Date day) {

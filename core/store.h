@@ -151,6 +151,8 @@ public:
   /// (active() false). Make it outside any transaction and end it after the commit or the
   /// roll-back; its end switches back to the write-ahead log (or, should that fail, the next
   /// read-write open does).
+  /// While it is active, SQLite checks no foreign keys: only upsertReservation may write then,
+  /// which puts a row's codes into their tables before the row itself.
   class DirectWrite {
   public:
     explicit DirectWrite(Store &store);

@@ -420,6 +420,41 @@ TEST(ReservationImporter, ReimportUpdatesTheSnapshotWithoutReadingTheTable) {
   EXPECT_EQ(cb::readReservationSnapshot(snapshot, stamp), table);
 }
 
+// A first import hands the snapshot the digests it worked out for its rows (when the file is in
+// id order) or lets the snapshot work them out (when it is not): either way each digest the
+// snapshot gives a later import is digestOf of the row with that id.
+TEST(ReservationImporter, FirstImportSnapshotCarriesEachRowsDigestSortedOrNot) {
+  const std::string sorted =
+      kHeader +
+      "E1,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
+      "E3,booked,2026-01-03,,2026-03-05,2026-03-06,2,TWN,Group,Agency,70,,G1\n"
+      "E5,cancelled,2026-01-04,2026-02-01,2026-03-05,2026-03-06,1,TWN,Group,Agency,70,,G1\n";
+  const std::string unsorted =
+      kHeader +
+      "E5,cancelled,2026-01-04,2026-02-01,2026-03-05,2026-03-06,1,TWN,Group,Agency,70,,G1\n"
+      "E1,booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,Leisure,Web,90,,\n"
+      "E3,booked,2026-01-03,,2026-03-05,2026-03-06,2,TWN,Group,Agency,70,,G1\n";
+  for (const std::string &text : {sorted, unsorted}) {
+    cbtest::TempDir tmp;
+    auto store = newStore(tmp);
+    cbtest::writeFile(tmp / "extract.csv", text);
+    ASSERT_TRUE(cb::importReservations(*store, tmp / "extract.csv").written);
+    const fs::path snapshot = cb::snapshotPathFor(store->path());
+    std::vector<std::pair<std::string, cb::ReservationDigest>> seen;
+    ASSERT_TRUE(cb::visitSnapshotDigests(
+        snapshot, store->reservationStamp(),
+        [&](std::string &&id, const cb::ReservationDigest &d) { seen.emplace_back(id, d); }));
+    fs::remove(snapshot);
+    const auto table = store->reservations(); // from the table, in id order
+    ASSERT_EQ(seen.size(), table.size());
+    ASSERT_EQ(table.size(), 3U);
+    for (std::size_t i = 0; i < table.size(); ++i) {
+      EXPECT_EQ(seen[i].first, table[i].id);
+      EXPECT_TRUE(seen[i].second == cb::digestOf(table[i])) << table[i].id;
+    }
+  }
+}
+
 // With a current snapshot an import takes the stored digests from it instead of the table; the
 // counts and the rows must be the same as without one, file after file.
 TEST(ReservationImporter, DigestsFromTheSnapshotGiveTheSameImports) {

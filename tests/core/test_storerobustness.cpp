@@ -297,6 +297,13 @@ TEST_F(StoreRobustness, FirstImportGoesThroughTheRollbackJournalAndLeavesTheStor
   EXPECT_EQ(db.queryText("PRAGMA integrity_check"), "ok");
   EXPECT_EQ(store->reservationCount(), 20'000);
   EXPECT_FALSE(fs::exists(path.string() + "-journal"));
+  // Written without SQLite's foreign-key lookups (the import put each code in its table first):
+  // none is broken, and the checks are on again for what follows.
+  EXPECT_EQ(db.queryInt64("SELECT count(*) FROM pragma_foreign_key_check"), 0);
+  EXPECT_EQ(db.queryInt64("SELECT count(*) FROM segments WHERE code = 'LEIS'"), 1);
+  EXPECT_EQ(db.queryInt64("PRAGMA foreign_keys"), 1);
+  EXPECT_THROW(store->deleteSegment("LEIS"), cb::StoreError); // 20,000 reservations use it
+  EXPECT_THROW(db.exec("DELETE FROM channels WHERE code = 'Web'"), cb::StoreError);
 
   // The next import (the store holds reservations now) goes through the log as always.
   writeRows(dir / "more.csv", 5'000, 20'000);
