@@ -49,6 +49,16 @@ else
 fi
 rows=$(($(wc -l <"$csv") - 1))
 
+# Runs "$@" once as a whole process; sets t (wall seconds) and m (peak RSS, KB).
+timeOnce() {
+  # The last run's writes flushed first, untimed: back to back, an import into a new store
+  # otherwise paid for the previous one's (4.4 s became up to 6.9 s on the 1M property).
+  sync
+  /usr/bin/time -f "%e %M" -o "$work/time.txt" "$@" >/dev/null 2>"$work/stderr.txt" ||
+    { echo "failed: $*" >&2; cat "$work/stderr.txt" >&2; exit 1; }
+  read -r t m <"$work/time.txt"
+}
+median() { printf '%s\n' "$@" | sort -n | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}'; }
 # Runs "$@" RUNS times; prints "median_seconds max_rss_mb". PREP (a function name or :) runs
 # before each run, untimed.
 measure() {
@@ -56,17 +66,29 @@ measure() {
   local times=() rss=0
   for ((i = 0; i < runs; i++)); do
     "$prep"
-    # The last run's writes flushed first, untimed: back to back, an import into a new store
-    # otherwise paid for the previous one's (4.4 s became up to 6.9 s on the 1M property).
-    sync
-    /usr/bin/time -f "%e %M" -o "$work/time.txt" "$@" >/dev/null 2>"$work/stderr.txt" ||
-      { echo "failed: $*" >&2; cat "$work/stderr.txt" >&2; exit 1; }
-    read -r t m <"$work/time.txt"
+    timeOnce "$@"
     times+=("$t")
     ((m > rss)) && rss=$m
   done
-  printf '%s %d\n' "$(printf '%s\n' "${times[@]}" | sort -n | awk '{a[NR]=$1} END {print a[int((NR+1)/2)]}')" \
-    $((rss / 1024))
+  printf '%s %d\n' "$(median "${times[@]}")" $((rss / 1024))
+}
+# The two sides of a comparison in turn, RUNS times each (PREP, untimed, then script A, then
+# script B): this machine's speed drifts from minute to minute (pandas' end to end took 4.5 s
+# to 8.3 s within a day), and timing one side after the other let the drift into the ratio.
+# Prints "median_a rss_a_mb median_b rss_b_mb".
+pair() {
+  local prep="$1" a="$2" b="$3"
+  local ta=() tb=() ra=0 rb=0
+  for ((i = 0; i < runs; i++)); do
+    "$prep"
+    timeOnce bash "$a"
+    ta+=("$t")
+    ((m > ra)) && ra=$m
+    timeOnce bash "$b"
+    tb+=("$t")
+    ((m > rb)) && rb=$m
+  done
+  printf '%s %d %s %d\n' "$(median "${ta[@]}")" $((ra / 1024)) "$(median "${tb[@]}")" $((rb / 1024))
 }
 row() { printf '| %s | %s s | %s MB |\n' "$1" "$2" "$3"; }
 
@@ -86,7 +108,6 @@ echo
 echo "| step | time | peak RSS |"
 echo "|---|---|---|"
 read -r t m < <(measure fresh "$cli" import "$store" "$csv" "${importArgs[@]}"); row "import into a new store" "$t" "$m"
-importT=$t
 read -r t m < <(measure : "$cli" import "$store" "$csv" "${importArgs[@]}"); row "re-import of the unchanged file" "$t" "$m"
 read -r t m < <(measure : "$cli" info "$store"); row "open the store, summary (info)" "$t" "$m"
 # An import writes or updates the snapshot (core/reservationsnapshot.h) and the kept total cube
@@ -102,7 +123,6 @@ row "curves, total, to CSV, without the kept cube (loads the store, builds the c
 curvesBuildT=$t
 read -r t m < <(measure : "$cli" curves "$store" --out "$work/curves.csv")
 row "curves, total, to CSV (reads the kept cube, writes the rows)" "$t" "$m"
-curvesT=$t
 # (The open dataset has no daily extracts: its rows are in another layout.)
 if [[ $size != open ]]; then
   # A daily extract: the rows booked or cancelled on the last day, each with its rate changed (a
@@ -132,7 +152,6 @@ row "outlook, 365 nights (pickup-adv)" "$t" "$m"
 read -r t m < <(measure : "$cli" backtest "$store" --from "$from" --to "$asof" --methods pickup-add \
   --naive-history --summary "$work/bt-add.csv")
 row "backtest of additive pickup, one year of reading dates" "$t" "$m"
-btAddT=$t
 read -r t m < <(measure nocube "$cli" backtest "$store" --from "$from" --to "$asof" \
   --methods pickup-add --naive-history --summary "$work/bt-add.csv")
 row "the same without the kept cube (loads the store, builds the cube, keeps it)" "$t" "$m"
@@ -148,17 +167,39 @@ fi
 
 echo
 echo "Against the pandas pipeline (bench/pandas_pipeline.py, the same parse, total curves and"
-echo "additive-pickup backtest; pandas keeps its parsed frame in a pickle as its \"store\"):"
+echo "additive-pickup backtest; pandas keeps its parsed frame in a pickle as its \"store\"). Each side's"
+echo "commands timed as one script, the two sides in turn, $runs runs each (medians); the last row"
+echo "adds up the steps above:"
 echo
 echo "| work | Curvebench | pandas | ratio |"
 echo "|---|---|---|---|"
 py=(/usr/bin/python3 "$root/bench/pandas_pipeline.py")
-read -r pe pm < <(measure : "${py[@]}" --format "$pdFormat" "$csv" --from "$from" --to "$asof" \
-  --curves-out "$work/pd-curves.csv" --save-cache "$work/pd.pkl")
-read -r pr prm < <(measure : "${py[@]}" --from-cache "$work/pd.pkl" --from "$from" --to "$asof" \
-  --curves-out "$work/pd-curves.csv")
-cbE=$(awk -v a="$importT" -v b="$curvesT" -v c="$btAddT" 'BEGIN {printf "%.2f", a + b + c}')
-cbR=$(awk -v b="$curvesT" -v c="$btAddT" 'BEGIN {printf "%.2f", b + c}')
+# Each side's work as one script, timed whole (the commands one after the other, as a user or a
+# scheduled job runs them).
+btArgs=(--from "$from" --to "$asof" --methods pickup-add --naive-history --summary "$work/bt-add.csv")
+{
+  echo 'set -e'
+  printf '%q ' "$cli" import "$store" "$csv" "${importArgs[@]}"; echo
+  printf '%q ' "$cli" curves "$store" --out "$work/curves.csv"; echo
+  printf '%q ' "$cli" backtest "$store" "${btArgs[@]}"; echo
+} >"$work/cb-e2e.sh"
+{
+  echo 'set -e'
+  printf '%q ' "$cli" curves "$store" --out "$work/curves.csv"; echo
+  printf '%q ' "$cli" backtest "$store" "${btArgs[@]}"; echo
+} >"$work/cb-refresh.sh"
+{
+  echo 'set -e'
+  printf '%q ' "${py[@]}" --format "$pdFormat" "$csv" --from "$from" --to "$asof" \
+    --curves-out "$work/pd-curves.csv" --save-cache "$work/pd.pkl"; echo
+} >"$work/pd-e2e.sh"
+{
+  echo 'set -e'
+  printf '%q ' "${py[@]}" --from-cache "$work/pd.pkl" --from "$from" --to "$asof" \
+    --curves-out "$work/pd-curves.csv"; echo
+} >"$work/pd-refresh.sh"
+read -r cbE _ pe pm < <(pair fresh "$work/cb-e2e.sh" "$work/pd-e2e.sh")
+read -r cbR _ pr prm < <(pair : "$work/cb-refresh.sh" "$work/pd-refresh.sh")
 cbB=$(awk -v b="$curvesBuildT" -v c="$btBuildT" 'BEGIN {printf "%.2f", b + c}')
 ratio() { awk -v p="$1" -v c="$2" 'BEGIN {printf "%.1f", p / c}'; }
 printf '| end to end from the CSV (import, curves, backtest) | %s s | %s s (%s MB) | %s× |\n' \
