@@ -876,6 +876,10 @@ Store::DirectWrite::~DirectWrite() {
   if (!active_)
     return;
   SqliteDb &db = *store_.db_;
+  // SQLite ignores this pragma inside a transaction, without an error. A DirectWrite ends after
+  // the commit or the roll-back; should a roll-back have failed and left one open, it is rolled
+  // back here, or the checks would stay off for the rest of this connection's life.
+  rollbackQuietly(db);
   try {
     db.exec("PRAGMA foreign_keys = ON");
   } catch (...) {

@@ -151,8 +151,10 @@ public:
   /// (active() false). Make it outside any transaction and end it after the commit or the
   /// roll-back; its end switches back to the write-ahead log (or, should that fail, the next
   /// read-write open does).
-  /// While it is active, SQLite checks no foreign keys: only upsertReservation may write then,
-  /// which puts a row's codes into their tables before the row itself.
+  /// While it is active, SQLite checks no foreign keys. What an import writes then keeps them
+  /// by itself: upsertReservation puts a row's codes into their tables before the row, and the
+  /// import log and the reservation stamp have none. A new write under a DirectWrite must keep
+  /// that promise too.
   class DirectWrite {
   public:
     explicit DirectWrite(Store &store);

@@ -302,6 +302,7 @@ TEST_F(StoreRobustness, FirstImportGoesThroughTheRollbackJournalAndLeavesTheStor
   EXPECT_EQ(db.queryInt64("SELECT count(*) FROM pragma_foreign_key_check"), 0);
   EXPECT_EQ(db.queryInt64("SELECT count(*) FROM segments WHERE code = 'LEIS'"), 1);
   EXPECT_EQ(db.queryInt64("PRAGMA foreign_keys"), 1);
+  // The store's own count refuses this one; SQLite's foreign key the raw delete below.
   EXPECT_THROW(store->deleteSegment("LEIS"), cb::StoreError); // 20,000 reservations use it
   EXPECT_THROW(db.exec("DELETE FROM channels WHERE code = 'Web'"), cb::StoreError);
 
@@ -315,6 +316,32 @@ TEST_F(StoreRobustness, FirstImportGoesThroughTheRollbackJournalAndLeavesTheStor
   store.reset();
   auto again = cb::Store::open(path, cb::Store::Access::ReadOnly);
   EXPECT_EQ(again->reservationCount(), 25'000);
+}
+
+// A first import that fails (strict, one bad row) leaves the foreign-key checks on, as one that
+// succeeds does: they are off only while its DirectWrite lives.
+TEST_F(StoreRobustness, FailedFirstImportLeavesForeignKeysOn) {
+  {
+    cb::Property p;
+    p.name = "Robust house";
+    p.capacity = 120;
+    cb::Store::create(path, p);
+  }
+  writeRows(dir / "rows.csv", 2'000);
+  {
+    std::ofstream out(dir / "rows.csv", std::ios::binary | std::ios::app);
+    out << "R999999,booked,2025-01-01,,2025-02-10,2025-02-08,1,DBL,LEIS,Web,90,EUR,\n";
+  }
+  auto store = cb::Store::open(path);
+  EXPECT_FALSE(cb::importReservations(*store, dir / "rows.csv").written);
+  EXPECT_EQ(store->reservationCount(), 0);
+  auto &db = store->sqliteForTesting();
+  EXPECT_EQ(db.queryInt64("PRAGMA foreign_keys"), 1);
+  EXPECT_EQ(db.queryText("PRAGMA journal_mode"), "wal");
+  db.exec("INSERT INTO segments (code) VALUES ('ONLY')");
+  db.exec("INSERT INTO reservations (id, status, booked_on, arrival, departure, rooms, segment, "
+          "rate) VALUES ('X1', 'booked', '2025-01-01', '2025-02-01', '2025-02-02', 1, 'ONLY', 1)");
+  EXPECT_THROW(db.exec("DELETE FROM segments WHERE code = 'ONLY'"), cb::StoreError);
 }
 
 TEST_F(StoreRobustness, FirstImportWithTheStoreOpenElsewhereGoesThroughTheLog) {
