@@ -6,7 +6,6 @@
 #include <algorithm>
 #include <array>
 #include <cmath>
-#include <map>
 #include <stdexcept>
 #include <tuple>
 #include <vector>
@@ -19,23 +18,18 @@ ErrorBands::ErrorBands(const ErrorWindow &window, BandOptions options)
     return;
   const std::span<const BacktestRow> all = window_.all();
   base_.reserve(all.size());
-  std::map<std::tuple<std::uint32_t, std::uint32_t, int, std::int32_t>,
-           std::optional<std::pair<double, double>>>
-      memo;
   for (const BacktestRow &r : all) {
     const int b = window_.buckets().bucketOf(r.lead);
-    const auto key = std::make_tuple(r.series, r.method, b, r.reading.days());
-    auto it = memo.find(key);
-    if (it == memo.end())
-      it = memo.emplace(key, residualQuantiles(r.series, r.method, b, r.reading)).first;
+    const Key key{r.series, r.method, b, r.reading.days()};
+    auto it = quantiles_.find(key);
+    if (it == quantiles_.end())
+      it = quantiles_.emplace(key, residualQuantiles(r.series, r.method, b, r.reading)).first;
     base_.push_back(it->second);
   }
 }
 
-std::optional<std::pair<double, double>> ErrorBands::residualQuantiles(std::uint32_t series,
-                                                                       std::uint32_t method,
-                                                                       int bucket,
-                                                                       Date readingDate) const {
+ErrorBands::Quantiles ErrorBands::residualQuantiles(std::uint32_t series, std::uint32_t method,
+                                                    int bucket, Date readingDate) const {
   const auto rows =
       window_.rows(series, method, bucket, readingDate - (options_.windowDays - 1), readingDate);
   if (rows.empty() || static_cast<int>(rows.size()) < options_.minCount)
@@ -49,29 +43,54 @@ std::optional<std::pair<double, double>> ErrorBands::residualQuantiles(std::uint
   return std::pair{q[0], q[1]};
 }
 
+std::optional<double> ErrorBands::correction(std::uint32_t series, std::uint32_t method, int bucket,
+                                             Date readingDate) const {
+  const auto rows = window_.rows(series, method, bucket,
+                                 readingDate - (options_.calibrationDays - 1), readingDate);
+  const BacktestRow *first = window_.all().data();
+  std::vector<double> scores;
+  scores.reserve(rows.size());
+  for (const BacktestRow &r : rows)
+    if (const auto &b = base_[static_cast<std::size_t>(&r - first)])
+      scores.push_back(score(r.forecast + b->first, r.forecast + b->second, r.final));
+  if (static_cast<int>(scores.size()) < options_.minCount)
+    return std::nullopt;
+  return conformalQuantile(std::move(scores), options_.upper - options_.lower);
+}
+
 std::optional<Band> ErrorBands::band(std::uint32_t series, std::uint32_t method, int bucket,
                                      Date readingDate, double forecast) const {
-  const auto q = residualQuantiles(series, method, bucket, readingDate);
-  if (!q)
-    return std::nullopt;
-  double lo = forecast + q->first, hi = forecast + q->second;
-  if (options_.calibrationDays > 0) {
-    const auto rows = window_.rows(series, method, bucket,
-                                   readingDate - (options_.calibrationDays - 1), readingDate);
-    const BacktestRow *first = window_.all().data();
-    std::vector<double> scores;
-    scores.reserve(rows.size());
-    for (const BacktestRow &r : rows)
-      if (const auto &b = base_[static_cast<std::size_t>(&r - first)])
-        scores.push_back(score(r.forecast + b->first, r.forecast + b->second, r.final));
-    if (static_cast<int>(scores.size()) >= options_.minCount) {
-      const double correction =
-          conformalQuantile(std::move(scores), options_.upper - options_.lower);
-      lo -= correction;
-      hi += correction;
-      if (lo > hi) // a negative correction can cross the edges; the band then shrinks to a point
-        lo = hi = (lo + hi) / 2;
+  const Key key{series, method, bucket, readingDate.days()};
+  Quantiles q;
+  std::optional<double> corr;
+  {
+    // Held while a missing offset is worked out: two threads asking for the same key do the
+    // work once, and a band costs a look-up once its key is known.
+    std::lock_guard lock(memoMutex_);
+    if (auto it = quantiles_.find(key); it != quantiles_.end()) {
+      q = it->second;
+    } else {
+      auto e = extraQuantiles_.find(key);
+      if (e == extraQuantiles_.end())
+        e = extraQuantiles_.emplace(key, residualQuantiles(series, method, bucket, readingDate))
+                .first;
+      q = e->second;
     }
+    if (!q)
+      return std::nullopt;
+    if (options_.calibrationDays > 0) {
+      auto c = corrections_.find(key);
+      if (c == corrections_.end())
+        c = corrections_.emplace(key, correction(series, method, bucket, readingDate)).first;
+      corr = c->second;
+    }
+  }
+  double lo = forecast + q->first, hi = forecast + q->second;
+  if (corr) {
+    lo -= *corr;
+    hi += *corr;
+    if (lo > hi) // a negative correction can cross the edges; the band then shrinks to a point
+      lo = hi = (lo + hi) / 2;
   }
   return Band{std::max(0.0, lo), std::max(0.0, hi)};
 }

@@ -6,8 +6,11 @@
 #include "core/errorwindow.h"
 
 #include <cstdint>
+#include <map>
+#include <mutex>
 #include <optional>
 #include <span>
+#include <tuple>
 #include <vector>
 
 namespace cb {
@@ -59,13 +62,29 @@ public:
   static double conformalQuantile(std::vector<double> scores, double level);
 
 private:
-  std::optional<std::pair<double, double>>
-  residualQuantiles(std::uint32_t series, std::uint32_t method, int bucket, Date readingDate) const;
+  /// (series, method, bucket, reading date in days): what a band's offsets depend on. Every
+  /// forecast of one key gets the same offsets, only its own point forecast differs.
+  using Key = std::tuple<std::uint32_t, std::uint32_t, int, std::int32_t>;
+  using Quantiles = std::optional<std::pair<double, double>>;
+  Quantiles residualQuantiles(std::uint32_t series, std::uint32_t method, int bucket,
+                              Date readingDate) const;
+  /// The conformal correction Q of a key (nullopt with fewer than minCount scores).
+  std::optional<double> correction(std::uint32_t series, std::uint32_t method, int bucket,
+                                   Date readingDate) const;
 
   const ErrorWindow &window_;
   BandOptions options_;
   /// Per window row: the base residual quantiles known at its reading date.
-  std::vector<std::optional<std::pair<double, double>>> base_;
+  std::vector<Quantiles> base_;
+  /// The base quantiles of every key of the window's rows, worked out once in the constructor.
+  std::map<Key, Quantiles> quantiles_;
+  /// Offsets of the keys band() was asked for and quantiles_ lacks, and the corrections, each
+  /// worked out once: a backtest asks for the same key at every lead of a bucket (a year of
+  /// reading dates of additive pickup at a million bookings: 30 ms of bands became a few).
+  /// band() is const and may be called from several threads, hence the lock.
+  mutable std::mutex memoMutex_;
+  mutable std::map<Key, Quantiles> extraQuantiles_;
+  mutable std::map<Key, std::optional<double>> corrections_;
 };
 
 /// Share of outcomes inside their band, edges included: finals[i] ∈ [bands[i].lo, bands[i].hi].

@@ -34,11 +34,38 @@ double quantileType7(std::vector<double> values, double p) {
 }
 
 std::vector<double> quantilesType7(std::vector<double> values, std::span<const double> probs) {
-  std::sort(values.begin(), values.end());
+  for (double p : probs)
+    checkProbability(p);
+  if (values.empty())
+    throw std::invalid_argument("quantile of an empty sample");
+  // Only the ranks ⌊h⌋ and ⌊h⌋ + 1 of each probability are read, so they are selected in
+  // ascending order (std::nth_element, each on what lies above the last) instead of sorting
+  // everything: linear instead of n log n, and the same values a full sort puts there.
+  const std::size_t n = values.size();
+  std::vector<std::size_t> ranks;
+  for (double p : probs) {
+    const auto i = static_cast<std::size_t>(std::floor(static_cast<double>(n - 1) * p));
+    ranks.push_back(i);
+    if (i + 1 < n)
+      ranks.push_back(i + 1);
+  }
+  std::sort(ranks.begin(), ranks.end());
+  ranks.erase(std::unique(ranks.begin(), ranks.end()), ranks.end());
+  auto from = values.begin();
+  for (std::size_t r : ranks) {
+    const auto at = values.begin() + static_cast<std::ptrdiff_t>(r);
+    std::nth_element(from, at, values.end());
+    from = at + 1;
+  }
   std::vector<double> out;
   out.reserve(probs.size());
-  for (double p : probs)
-    out.push_back(quantileType7Sorted(values, p));
+  for (double p : probs) {
+    // As quantileType7Sorted, reading only the selected ranks.
+    const double h = static_cast<double>(n - 1) * p;
+    const double lo = std::floor(h);
+    const auto i = static_cast<std::size_t>(lo);
+    out.push_back(i + 1 >= n ? values[i] : values[i] + (h - lo) * (values[i + 1] - values[i]));
+  }
   return out;
 }
 

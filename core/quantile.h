@@ -18,7 +18,8 @@ double quantileType7Sorted(std::span<const double> sorted, double p);
 /// Same, for values in any order (sorts a copy).
 double quantileType7(std::vector<double> values, double p);
 
-/// Several probabilities at once (one sort). Same errors as quantileType7Sorted.
+/// Several probabilities at once (selects the ranks they read instead of sorting: the same
+/// values as quantileType7, bit for bit). Same errors as quantileType7Sorted.
 std::vector<double> quantilesType7(std::vector<double> values, std::span<const double> probs);
 
 /// Type-7 quantile of a sample given as (value, count) pairs — each value repeated `count` times

@@ -4,6 +4,7 @@
 
 #include <gtest/gtest.h>
 
+#include <random>
 #include <stdexcept>
 #include <vector>
 
@@ -34,6 +35,25 @@ TEST(Quantile, MatchesR) {
   expectAll({-5, 5}, {-5, -3.9999999999999996, -2.5, 0, 2.5, 3.9999999999999996, 5});
   expectAll({0.5, 2.25, -1.75, 3.125, 10, 7.5, 7.5},
             {-1.75, -0.3999999999999998, 1.375, 3.125, 7.5, 8.5, 10});
+}
+
+TEST(Quantile, SeveralAtOnceGiveWhatOneAtATimeGives) {
+  // quantilesType7 selects the ranks it reads; quantileType7 sorts. Same values, bit for bit, on
+  // samples with many ties and on probabilities in any order, repeated or between ranks.
+  std::mt19937 gen(7);
+  const std::vector<double> probs = {0.9, 0.1, 0.5, 0.1, 1, 0, 0.333, 0.999, 0.25};
+  for (int trial = 0; trial < 200; ++trial) {
+    std::uniform_int_distribution<int> size(1, 300), value(-20, 20);
+    std::vector<double> sample(static_cast<std::size_t>(size(gen)));
+    for (double &v : sample)
+      v = value(gen) / 4.0;
+    const std::vector<double> q = cb::quantilesType7(sample, probs);
+    ASSERT_EQ(q.size(), probs.size());
+    for (std::size_t i = 0; i < probs.size(); ++i)
+      ASSERT_EQ(q[i], cb::quantileType7(sample, probs[i])) << trial << " p = " << probs[i];
+  }
+  EXPECT_THROW(cb::quantilesType7({}, probs), std::invalid_argument);
+  EXPECT_THROW(cb::quantilesType7({1, 2}, std::vector<double>{0.5, 1.5}), std::invalid_argument);
 }
 
 TEST(Quantile, CountedSampleMatchesRAndTheExpandedSample) {
