@@ -36,6 +36,8 @@ double quantileType7(std::vector<double> values, double p) {
 std::vector<double> quantilesType7(std::vector<double> values, std::span<const double> probs) {
   for (double p : probs)
     checkProbability(p);
+  if (probs.empty())
+    return {};
   if (values.empty())
     throw std::invalid_argument("quantile of an empty sample");
   // Only the ranks ⌊h⌋ and ⌊h⌋ + 1 of each probability are read, so they are selected in

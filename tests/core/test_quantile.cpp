@@ -53,6 +53,7 @@ TEST(Quantile, SeveralAtOnceGiveWhatOneAtATimeGives) {
       ASSERT_EQ(q[i], cb::quantileType7(sample, probs[i])) << trial << " p = " << probs[i];
   }
   EXPECT_THROW(cb::quantilesType7({}, probs), std::invalid_argument);
+  EXPECT_TRUE(cb::quantilesType7({}, std::vector<double>{}).empty()); // as the sort gave
   EXPECT_THROW(cb::quantilesType7({1, 2}, std::vector<double>{0.5, 1.5}), std::invalid_argument);
 }
 
