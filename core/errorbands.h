@@ -81,7 +81,8 @@ private:
   /// Offsets of the keys band() was asked for and quantiles_ lacks, and the corrections, each
   /// worked out once: a backtest asks for the same key at every lead of a bucket (a year of
   /// reading dates of additive pickup at a million bookings: 30 ms of bands became a few).
-  /// band() is const and may be called from several threads, hence the lock.
+  /// band() is const and may be called from several threads, hence the lock (which makes the
+  /// class neither copyable nor movable; it holds a reference to its window anyway).
   mutable std::mutex memoMutex_;
   mutable std::map<Key, Quantiles> extraQuantiles_;
   mutable std::map<Key, std::optional<double>> corrections_;

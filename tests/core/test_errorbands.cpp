@@ -154,3 +154,64 @@ TEST(ErrorBands, ConformalCorrectionFromKnownOutcomesOnly) {
     EXPECT_DOUBLE_EQ(b->hi, 60.0);
   }
 }
+
+TEST(ErrorBands, RememberedOffsetsGiveWhatAFreshObjectGives) {
+  // band() remembers each key's quantiles and correction. Asking one object many keys, in two
+  // orders and each twice with other forecasts, must give what a new object gives for each
+  // question alone. Rows as in ConformalCorrectionFromKnownOutcomesOnly.
+  const std::vector<double> residual = {0, 1, 3, 6, 10, 15};
+  std::vector<cb::BacktestRow> rows;
+  for (unsigned n = 1; n <= 6; ++n) {
+    cb::BacktestRow r;
+    r.night = cb::Date::fromYmd(2026, 3, n);
+    r.reading = r.night - 1;
+    r.lead = 1;
+    r.forecast = 10;
+    r.final = 10 + residual[n - 1];
+    rows.push_back(r);
+  }
+  const cb::ErrorWindow window(rows, cb::LeadBuckets{});
+  const int bucket = window.buckets().bucketOf(1);
+  for (const int calibration : {0, 10}) {
+    cb::BandOptions o;
+    o.windowDays = 2;
+    o.minCount = 1;
+    o.calibrationDays = calibration;
+    // Reading dates 28 Feb … 9 Mar: the rows' own (28 Feb … 5 Mar) and later ones no row has.
+    std::vector<cb::Date> days;
+    for (int d = 0; d < 10; ++d)
+      days.push_back(cb::Date::fromYmd(2026, 2, 28) + d);
+    const auto alone = [&](cb::Date t, double f) {
+      const cb::ErrorBands fresh(window, o);
+      return fresh.band(0, 0, bucket, t, f);
+    };
+    const cb::ErrorBands kept(window, o);
+    for (const bool reverse : {false, true})
+      for (int i = 0; i < int(days.size()); ++i) {
+        const cb::Date t = days[reverse ? days.size() - 1 - i : i];
+        for (const double f : {50.0, 20.0, 50.0}) {
+          const auto want = alone(t, f);
+          const auto got = kept.band(0, 0, bucket, t, f);
+          ASSERT_EQ(want.has_value(), got.has_value()) << t.toIso() << " " << f;
+          if (want) {
+            EXPECT_EQ(want->lo, got->lo) << t.toIso() << " " << f << " calibration " << calibration;
+            EXPECT_EQ(want->hi, got->hi) << t.toIso() << " " << f << " calibration " << calibration;
+          }
+        }
+      }
+  }
+  // One hand-worked value through the remembered path (see the test above): 1-day window,
+  // calibration 10 at 5 March gives offsets +6 and +14, whatever the forecast asked before.
+  cb::BandOptions o;
+  o.windowDays = 1;
+  o.minCount = 1;
+  o.calibrationDays = 10;
+  const cb::ErrorBands bands(window, o);
+  const auto a = bands.band(0, 0, bucket, cb::Date::fromYmd(2026, 3, 5), 50.0);
+  const auto b = bands.band(0, 0, bucket, cb::Date::fromYmd(2026, 3, 5), 20.0);
+  ASSERT_TRUE(a && b);
+  EXPECT_DOUBLE_EQ(a->lo, 56.0);
+  EXPECT_DOUBLE_EQ(a->hi, 64.0);
+  EXPECT_DOUBLE_EQ(b->lo, 26.0);
+  EXPECT_DOUBLE_EQ(b->hi, 34.0);
+}
