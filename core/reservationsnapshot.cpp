@@ -269,11 +269,18 @@ private:
   bool ok_ = false;
 };
 
-std::optional<std::vector<Reservation>> rowsOf(const Decoded &in) {
+/// The rows of a checked snapshot, with room for `spare` more; with `digests`, their stored
+/// digests too (in the same order, with the same spare room).
+std::optional<std::vector<Reservation>> rowsOf(const Decoded &in, std::size_t spare = 0,
+                                               std::vector<ReservationDigest> *digests = nullptr) {
   if (!in.ok())
     return std::nullopt;
   std::vector<Reservation> rows;
-  reserveLarge(rows, in.size());
+  reserveLarge(rows, in.size() + spare);
+  if (digests) {
+    digests->clear();
+    digests->reserve(in.size() + spare);
+  }
   bool good = true;
   in.forEachId([&](std::size_t i, std::string_view id) {
     if (!good)
@@ -281,6 +288,8 @@ std::optional<std::vector<Reservation>> rowsOf(const Decoded &in) {
     Reservation &r = rows.emplace_back();
     r.id.assign(id);
     good = in.fill(i, r);
+    if (digests)
+      digests->push_back(in.digest(i));
   });
   if (!good)
     return std::nullopt;
@@ -347,9 +356,6 @@ bool updateReservationSnapshot(
     const fs::path &file, std::uint64_t before, std::uint64_t after,
     std::vector<Reservation> changed,
     const std::function<void(const std::vector<Reservation> &rows)> &withRows) {
-  auto base = readReservationSnapshot(file, before);
-  if (!base)
-    return false;
   // Both in id order (the store's ORDER BY id compares bytes, as std::string's < does); a
   // changed row replaces the stored row with its id, a new id is inserted in its place.
   auto byId = [](const Reservation &a, const Reservation &b) { return a.id < b.id; };
@@ -360,18 +366,59 @@ bool updateReservationSnapshot(
       std::unique(changed.rbegin(), changed.rend(), [](const Reservation &a, const Reservation &b) {
         return a.id == b.id;
       }).base());
-  std::vector<Reservation> merged;
-  reserveLarge(merged, base->size() + changed.size());
-  auto old = base->begin();
-  for (auto &c : changed) {
-    while (old != base->end() && old->id < c.id)
-      merged.push_back(std::move(*old++));
-    if (old != base->end() && old->id == c.id)
-      ++old;
-    merged.push_back(std::move(c));
+
+  const MappedFile map(file);
+  const std::string_view bytes = bytesFor(map, before);
+  if (bytes.empty())
+    return false;
+  const Decoded in(bytes, before);
+  if (!in.ok())
+    return false;
+  // How many changed ids are new, from the ids in place (no row decoded yet): the rows are then
+  // decoded once, with room for them, and merged in place from the back. A daily extract
+  // changes a few hundred of a million rows: a second million-row vector (232 MB, most of the
+  // update's time went on the kernel zeroing its pages) and a digest per row are not needed.
+  std::size_t added = 0;
+  bool inOrder = true; // what every snapshot holds; without it the merge below would be wrong
+  {
+    auto c = changed.begin();
+    std::string_view previous;
+    in.forEachId([&](std::size_t i, std::string_view id) {
+      if (i > 0 && !(previous < id))
+        inOrder = false;
+      previous = id;
+      for (; c != changed.end() && std::string_view(c->id) < id; ++c)
+        ++added;
+      if (c != changed.end() && std::string_view(c->id) == id)
+        ++c;
+    });
+    added += static_cast<std::size_t>(changed.end() - c);
   }
-  std::move(old, base->end(), std::back_inserter(merged));
-  const bool written = writeReservationSnapshot(file, after, merged);
+  if (!inOrder)
+    return false;
+  std::vector<ReservationDigest> digests;
+  auto rows = rowsOf(in, added, &digests);
+  if (!rows)
+    return false;
+  std::vector<Reservation> &merged = *rows;
+  // Back to front: old rows after the changed id move up by the number of new ids still to
+  // place (k − i); a changed row takes its id's place, or the gap above it. The rows before the
+  // first changed id stay where they are.
+  std::size_t i = merged.size(), k = i + added;
+  merged.resize(k);
+  digests.resize(k);
+  for (auto c = changed.rbegin(); c != changed.rend(); ++c) {
+    for (; i > 0 && merged[i - 1].id > c->id; --i, --k)
+      if (k != i) {
+        merged[k - 1] = std::move(merged[i - 1]);
+        digests[k - 1] = digests[i - 1];
+      }
+    if (i > 0 && merged[i - 1].id == c->id)
+      --i;
+    digests[k - 1] = digestOf(*c);
+    merged[--k] = std::move(*c);
+  }
+  const bool written = writeReservationSnapshot(file, after, merged, &digests);
   if (withRows)
     withRows(merged);
   return written;

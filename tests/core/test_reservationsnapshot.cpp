@@ -5,10 +5,14 @@
 #include "core/store.h"
 #include "testsupport.h"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <fstream>
+#include <map>
+#include <random>
 #include <sstream>
 
 // The snapshot is a cache of the store's own rows, so every check here compares it with the
@@ -141,6 +145,54 @@ TEST(ReservationSnapshot, UpdateMergesByIdAndTheLastRowOfAnIdWins) {
   EXPECT_EQ((*rows)[1], booking("A2", 5)); // replaced whole
   EXPECT_EQ((*rows)[4].rooms, 4);          // the later of the two B1 rows
   EXPECT_FALSE(cb::readReservationSnapshot(file, 1).has_value());
+}
+
+TEST(ReservationSnapshot, UpdateInPlaceGivesWhatAMergeByIdGives) {
+  // The update merges in place from the back. Against a map by id (the last row of an id wins),
+  // over random change sets: ids before the first, between and after the last stored id,
+  // replacements, repeats, none at all. The digests written must be each row's own.
+  cbtest::TempDir dir;
+  const fs::path file = dir / "u.snapshot";
+  std::mt19937 rng(20261205);
+  auto idOf = [](int k) { return fmt::format("R{:05}", k); };
+  for (int round = 0; round < 200; ++round) {
+    std::map<std::string, Reservation> want;
+    std::vector<Reservation> base;
+    const int stored = static_cast<int>(rng() % 40);
+    for (int k = 0; k < stored; ++k) {
+      const int key = 2 * k + 1; // odd keys: the even ones between them are new
+      Reservation r = booking(idOf(key), 1 + static_cast<int>(rng() % 5));
+      base.push_back(r);
+      want[r.id] = r;
+    }
+    ASSERT_TRUE(cb::writeReservationSnapshot(file, 1, base));
+    std::vector<Reservation> changed;
+    const int changes = static_cast<int>(rng() % 12);
+    for (int j = 0; j < changes; ++j) {
+      // Keys 0 … 2·stored + 2: even ones are new (before, between, after), odd ones stored.
+      Reservation r = booking(idOf(static_cast<int>(rng() % (2 * stored + 3))));
+      r.rooms = 10 + j; // tells repeats of an id apart: the later one wins
+      r.segment = rng() % 2 ? "LEIS" : "CORP";
+      changed.push_back(r);
+      want[r.id] = r;
+    }
+    ASSERT_TRUE(cb::updateReservationSnapshot(file, 1, 2, changed)) << "round " << round;
+    const auto rows = cb::readReservationSnapshot(file, 2);
+    ASSERT_TRUE(rows.has_value());
+    std::vector<Reservation> expected;
+    for (auto &[id, r] : want)
+      expected.push_back(r);
+    ASSERT_EQ(*rows, expected) << "round " << round;
+    std::size_t at = 0;
+    ASSERT_TRUE(
+        cb::visitSnapshotDigests(file, 2, [&](std::string &&id, const cb::ReservationDigest &dg) {
+          ASSERT_LT(at, expected.size());
+          EXPECT_EQ(id, expected[at].id);
+          EXPECT_TRUE(dg == cb::digestOf(expected[at])) << "round " << round << " row " << at;
+          ++at;
+        }));
+    EXPECT_EQ(at, expected.size());
+  }
 }
 
 TEST(ReservationSnapshot, NegativeZeroRateIsStoredAsZeroAsSqliteDoes) {
