@@ -18,6 +18,7 @@
 #include <string>
 #include <string_view>
 #include <system_error>
+#include <thread>
 #include <unordered_map>
 
 // Hand-written: the format is a handful of flat arrays (one per field) behind a header, read in
@@ -418,9 +419,34 @@ bool updateReservationSnapshot(
     digests[k - 1] = digestOf(*c);
     merged[--k] = std::move(*c);
   }
-  const bool written = writeReservationSnapshot(file, after, merged, &digests);
+  // The file is written on a second thread while `withRows` works from the same rows (both
+  // only read them): at a million rows, 0.3 s of encoding and writing beside the kept cube's
+  // 0.1 s. With no thread to be had, one after the other.
+  bool written = false;
+  auto write = [&]() noexcept {
+    try {
+      written = writeReservationSnapshot(file, after, merged, &digests);
+    } catch (...) {
+      written = false; // out of memory, say: only a cache
+    }
+  };
+  std::thread writer;
+  try {
+    writer = std::thread(write);
+  } catch (...) {
+    write();
+  }
+  struct Join {
+    std::thread &t;
+    ~Join() {
+      if (t.joinable())
+        t.join();
+    }
+  } join{writer};
   if (withRows)
     withRows(merged);
+  if (writer.joinable())
+    writer.join();
   return written;
 }
 

@@ -55,7 +55,8 @@ bool writeReservationSnapshot(const std::filesystem::path &file, std::uint64_t s
 /// daily extract that changes a few thousand rows keeps the snapshot current for the next read.
 /// Returns false when there was no such snapshot or it could not be written; the next read then
 /// rebuilds it from the store. `withRows`, when given, is called with every row of `after` (in
-/// id order) once they are merged, so an import can keep what it derives from them current too.
+/// id order) once they are merged, so an import can keep what it derives from them current too;
+/// it runs on the calling thread while another thread writes the file, so it must only read them.
 bool updateReservationSnapshot(
     const std::filesystem::path &file, std::uint64_t before, std::uint64_t after,
     std::vector<Reservation> changed,
