@@ -7,6 +7,8 @@
 #include <cstdlib>
 #include <limits>
 #include <new>
+#include <stdexcept>
+#include <type_traits>
 #include <unordered_map>
 
 #if defined(__linux__)
@@ -116,17 +118,19 @@ struct Stay {
   bool noShow;
 };
 
-std::pmr::vector<Stay> collectStays(const std::vector<Reservation> &reservations,
+/// Rows: std::vector<Reservation> or std::span<const ReservationFacts> (the same field names).
+template <class Rows>
+std::pmr::vector<Stay> collectStays(const Rows &reservations,
                                     const std::vector<std::int32_t> &splitOf, Date first, Date last,
                                     Date asOf, std::pmr::memory_resource *memory) {
   // Left out: rows not yet booked at the reading date, rows outside the range, day uses.
-  auto counts = [&](const Reservation &r) {
+  auto counts = [&](const auto &r) {
     return r.bookedOn <= asOf && r.arrival <= last && r.departure > first &&
            r.departure > r.arrival;
   };
   const std::size_t nights = static_cast<std::size_t>(last - first + 1);
   std::vector<std::size_t> start(nights + 1, 0);
-  for (const Reservation &r : reservations)
+  for (const auto &r : reservations)
     if (counts(r))
       ++start[static_cast<std::size_t>(std::max(r.arrival, first) - first) + 1];
   for (std::size_t k = 1; k < start.size(); ++k)
@@ -134,7 +138,7 @@ std::pmr::vector<Stay> collectStays(const std::vector<Reservation> &reservations
   std::pmr::vector<Stay> stays(start.back(), memory);
   constexpr std::int32_t kNever = std::numeric_limits<std::int32_t>::max() / 2;
   for (std::size_t i = 0; i < reservations.size(); ++i) {
-    const Reservation &r = reservations[i];
+    const auto &r = reservations[i];
     if (!counts(r))
       continue;
     Stay st{};
@@ -177,12 +181,11 @@ std::optional<SeriesBy> parseSeriesBy(std::string_view name) {
 
 namespace {
 /// The reservation's last activity: its booking or its cancellation.
-Date lastActivity(const Reservation &r) {
+template <class Row> Date lastActivity(const Row &r) {
   return r.cancelledOn ? std::max(r.bookedOn, *r.cancelledOn) : r.bookedOn;
 }
-} // namespace
 
-std::optional<Date> newestActivity(const std::vector<Reservation> &reservations) {
+template <class Rows> std::optional<Date> newestOf(const Rows &reservations) {
   std::optional<Date> newest;
   for (const auto &r : reservations) {
     const Date d = lastActivity(r);
@@ -192,9 +195,9 @@ std::optional<Date> newestActivity(const std::vector<Reservation> &reservations)
   return newest;
 }
 
-ReservationBounds boundsOf(const std::vector<Reservation> &reservations) {
+template <class Rows> ReservationBounds boundsOfRows(const Rows &reservations) {
   ReservationBounds b;
-  for (const Reservation &r : reservations) {
+  for (const auto &r : reservations) {
     const Date d = lastActivity(r);
     if (!b.newest || d > *b.newest)
       b.newest = d;
@@ -207,9 +210,33 @@ ReservationBounds boundsOf(const std::vector<Reservation> &reservations) {
   }
   return b;
 }
+} // namespace
+
+std::optional<Date> newestActivity(const std::vector<Reservation> &reservations) {
+  return newestOf(reservations);
+}
+
+ReservationBounds boundsOf(const std::vector<Reservation> &reservations) {
+  return boundsOfRows(reservations);
+}
+
+ReservationBounds boundsOf(std::span<const ReservationFacts> rows) { return boundsOfRows(rows); }
 
 CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
                            const CubeOptions &options) {
+  return buildFrom(reservations, options);
+}
+
+CurveCube CurveCube::buildTotal(std::span<const ReservationFacts> rows,
+                                const CubeOptions &options) {
+  if (options.by != SeriesBy::Total)
+    throw std::invalid_argument("a cube split by segment, channel or room type needs the "
+                                "reservations' codes, not their facts alone");
+  return buildFrom(rows, options);
+}
+
+template <class Rows>
+CurveCube CurveCube::buildFrom(const Rows &reservations, const CubeOptions &options) {
   if (options.lastNight < options.firstNight)
     throw AsOfError(fmt::format("the night range is empty: {} is after {}",
                                 options.firstNight.toIso(), options.lastNight.toIso()));
@@ -217,7 +244,7 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
     throw AsOfError(
         fmt::format("max days before arrival must be 0 or more, not {}", options.maxDba));
   const std::optional<Date> newest =
-      options.newest && !reservations.empty() ? options.newest : newestActivity(reservations);
+      options.newest && !reservations.empty() ? options.newest : newestOf(reservations);
   if (!newest)
     throw AsOfError("the data has no bookings, so no reading date can be set");
   if (options.asOf && *options.asOf > *newest)
@@ -239,47 +266,49 @@ CurveCube CurveCube::build(const std::vector<Reservation> &reservations,
   c.series_ = {"ALL"};
   c.firstBooked_ = {Date()};
   std::vector<std::int32_t> splitOf; // per reservation: its series index, or -1 when not known
-  if (c.by_ != SeriesBy::Total) {
-    std::unordered_map<std::string_view, std::int32_t> ids;
-    std::vector<std::string_view> codes;
-    std::vector<Date> firstBooked;
-    splitOf.assign(reservations.size(), -1);
-    std::string_view lastCode;
-    std::int32_t lastId = -1;
-    for (std::size_t i = 0; i < reservations.size(); ++i) {
-      const Reservation &r = reservations[i];
-      if (r.bookedOn > asOf)
-        continue;
-      std::string_view code = codeOf(r, c.by_);
-      if (lastId < 0 || code != lastCode) {
-        auto [it, added] = ids.try_emplace(code, static_cast<std::int32_t>(codes.size()));
-        if (added) {
-          codes.push_back(code);
-          firstBooked.push_back(r.bookedOn);
+  if constexpr (std::is_same_v<Rows, std::vector<Reservation>>) {
+    if (c.by_ != SeriesBy::Total) {
+      std::unordered_map<std::string_view, std::int32_t> ids;
+      std::vector<std::string_view> codes;
+      std::vector<Date> firstBooked;
+      splitOf.assign(reservations.size(), -1);
+      std::string_view lastCode;
+      std::int32_t lastId = -1;
+      for (std::size_t i = 0; i < reservations.size(); ++i) {
+        const Reservation &r = reservations[i];
+        if (r.bookedOn > asOf)
+          continue;
+        std::string_view code = codeOf(r, c.by_);
+        if (lastId < 0 || code != lastCode) {
+          auto [it, added] = ids.try_emplace(code, static_cast<std::int32_t>(codes.size()));
+          if (added) {
+            codes.push_back(code);
+            firstBooked.push_back(r.bookedOn);
+          }
+          lastCode = code;
+          lastId = it->second;
         }
-        lastCode = code;
-        lastId = it->second;
+        splitOf[i] = lastId;
+        Date &earliest = firstBooked[static_cast<std::size_t>(lastId)];
+        earliest = std::min(earliest, r.bookedOn);
       }
-      splitOf[i] = lastId;
-      Date &earliest = firstBooked[static_cast<std::size_t>(lastId)];
-      earliest = std::min(earliest, r.bookedOn);
+      std::vector<std::int32_t> order(codes.size());
+      for (std::size_t k = 0; k < order.size(); ++k)
+        order[k] = static_cast<std::int32_t>(k);
+      std::sort(order.begin(), order.end(), [&](std::int32_t a, std::int32_t b) {
+        return codes[static_cast<std::size_t>(a)] < codes[static_cast<std::size_t>(b)];
+      });
+      std::vector<std::int32_t> rank(codes.size());
+      for (std::size_t k = 0; k < order.size(); ++k) {
+        rank[static_cast<std::size_t>(order[k])] = static_cast<std::int32_t>(k + 1);
+        std::string_view code = codes[static_cast<std::size_t>(order[k])];
+        c.series_.push_back(code.empty() ? std::string("(none)") : std::string(code));
+        c.firstBooked_.push_back(firstBooked[static_cast<std::size_t>(order[k])]);
+      }
+      for (auto &s : splitOf)
+        if (s >= 0)
+          s = rank[static_cast<std::size_t>(s)];
     }
-    std::vector<std::int32_t> order(codes.size());
-    for (std::size_t k = 0; k < order.size(); ++k)
-      order[k] = static_cast<std::int32_t>(k);
-    std::sort(order.begin(), order.end(), [&](std::int32_t a, std::int32_t b) {
-      return codes[static_cast<std::size_t>(a)] < codes[static_cast<std::size_t>(b)];
-    });
-    std::vector<std::int32_t> rank(codes.size());
-    for (std::size_t k = 0; k < order.size(); ++k) {
-      rank[static_cast<std::size_t>(order[k])] = static_cast<std::int32_t>(k + 1);
-      std::string_view code = codes[static_cast<std::size_t>(order[k])];
-      c.series_.push_back(code.empty() ? std::string("(none)") : std::string(code));
-      c.firstBooked_.push_back(firstBooked[static_cast<std::size_t>(order[k])]);
-    }
-    for (auto &s : splitOf)
-      if (s >= 0)
-        s = rank[static_cast<std::size_t>(s)];
   }
 
   const double wanted =

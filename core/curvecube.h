@@ -8,6 +8,7 @@
 #include <cstdint>
 #include <memory_resource>
 #include <optional>
+#include <span>
 #include <stdexcept>
 #include <string>
 #include <string_view>
@@ -54,6 +55,8 @@ struct ReservationBounds {
 };
 ReservationBounds boundsOf(const std::vector<Reservation> &reservations);
 
+ReservationBounds boundsOf(std::span<const ReservationFacts> rows);
+
 class CurveCube {
 public:
   /// Builds the cube. Throws AsOfError when options.asOf is after newestActivity(reservations)
@@ -64,6 +67,9 @@ public:
   /// `auto cube = CurveCube::build(rows, {first, last, 90, SeriesBy::Segment, std::nullopt});`
   /// `cube.otbRooms(*cube.seriesIndex("CORP"), night, 14)` = corporate rooms 14 days out.
   static CurveCube build(const std::vector<Reservation> &reservations, const CubeOptions &options);
+  /// The same cube from the facts of the same reservations, for the total only (options.by must
+  /// be SeriesBy::Total, else std::invalid_argument): a split needs the codes.
+  static CurveCube buildTotal(std::span<const ReservationFacts> rows, const CubeOptions &options);
 
   /// What a caller knows of the reservations outside this cube's nights. Empty: build() would
   /// give 0 in every cell outside them, because no reservation stays a night before
@@ -132,6 +138,8 @@ private:
            static_cast<std::size_t>(dba);
   }
   [[noreturn]] void outOfRange(std::size_t series, Date night, int dba) const;
+  /// build() and buildTotal(), over either kind of row (defined and used in curvecube.cpp only).
+  template <class Rows> static CurveCube buildFrom(const Rows &rows, const CubeOptions &options);
   Date first_, last_, asOf_;
   int nights_ = 0, maxDba_ = 0;
   SeriesBy by_ = SeriesBy::Total;

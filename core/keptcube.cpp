@@ -7,6 +7,7 @@
 #include <cstring>
 #include <functional>
 #include <limits>
+#include <type_traits>
 
 // Hand-written for the reason the snapshot is (core/reservationsnapshot.cpp): a few flat arrays
 // behind a header, and no Debian library we use writes our own record.
@@ -194,7 +195,8 @@ std::optional<CurveCube> KeptCube::cubeFor(CubeOptions options) const {
   return cube.narrowed(options, CurveCube::Outside::Empty);
 }
 
-std::optional<KeptCube> keptCubeOf(const std::vector<Reservation> &reservations) {
+namespace {
+template <class Rows> std::optional<KeptCube> keptCubeOfRows(const Rows &reservations) {
   KeptCube kept;
   kept.bounds = boundsOf(reservations);
   if (!kept.bounds.firstStay)
@@ -208,8 +210,20 @@ std::optional<KeptCube> keptCubeOf(const std::vector<Reservation> &reservations)
   o.by = SeriesBy::Total;
   o.asOf = kept.bounds.newest;
   o.newest = kept.bounds.newest;
-  kept.cube = CurveCube::build(reservations, o);
+  if constexpr (std::is_same_v<Rows, std::vector<Reservation>>)
+    kept.cube = CurveCube::build(reservations, o);
+  else
+    kept.cube = CurveCube::buildTotal(reservations, o);
   return kept;
+}
+} // namespace
+
+std::optional<KeptCube> keptCubeOf(const std::vector<Reservation> &reservations) {
+  return keptCubeOfRows(reservations);
+}
+
+std::optional<KeptCube> keptCubeOf(std::span<const ReservationFacts> rows) {
+  return keptCubeOfRows(rows);
 }
 
 std::string encodeKeptCube(std::uint64_t stamp, const KeptCube &kept) {

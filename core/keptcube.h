@@ -17,6 +17,7 @@
 #include <cstdint>
 #include <filesystem>
 #include <optional>
+#include <span>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -46,6 +47,8 @@ struct KeptCube {
 /// The kept cube of these reservations; nullopt when none of them stays a night (or every
 /// night stayed is more than kMaxDba days after the newest booking or cancellation).
 std::optional<KeptCube> keptCubeOf(const std::vector<Reservation> &reservations);
+/// The same from the facts of the same reservations (what a daily import has in hand).
+std::optional<KeptCube> keptCubeOf(std::span<const ReservationFacts> rows);
 
 /// The file's bytes for `stamp` (what writeKeptCube writes), for tests.
 std::string encodeKeptCube(std::uint64_t stamp, const KeptCube &kept);

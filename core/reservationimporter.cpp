@@ -613,7 +613,7 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
                                     cubeFile = keptCubePathFor(store.path())]() noexcept {
         // The kept cube from the same rows (core/keptcube.h): the commands that read the total
         // curves then need neither the rows nor a pass over them.
-        auto keepCube = [&](const std::vector<Reservation> &rows) {
+        auto keepCube = [&](const auto &rows) {
           try {
             if (const std::optional<KeptCube> kept = keptCubeOf(rows))
               writeKeptCube(cubeFile, stampAfter, *kept);
@@ -651,8 +651,9 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
             if (!cubeOnThread)
               keepCube(written);
           } else {
-            updateReservationSnapshot(snapshot, stampBefore, stampAfter, std::move(written),
-                                      keepCube);
+            updateReservationSnapshot(
+                snapshot, stampBefore, stampAfter, std::move(written),
+                [&](std::span<const ReservationFacts> rows) { keepCube(rows); });
           }
         } catch (...) {
           // Only a cache (out of memory, say): the next read rebuilds it from the store.

@@ -15,6 +15,7 @@
 #include <iterator>
 #include <limits>
 #include <memory>
+#include <span>
 #include <string>
 #include <string_view>
 #include <system_error>
@@ -71,9 +72,13 @@ template <class T> T load(const char *at) {
   return value;
 }
 
-/// A whole snapshot's bytes, built in one pass over the rows.
+/// A whole snapshot's bytes: from rows (in one pass over them), or by a merge (see
+/// updateReservationSnapshot) that fills them row by row through allocate(), putRow(),
+/// copyRow() and finish().
 class Encoded {
 public:
+  using Codes = std::array<std::uint32_t, kCodes>;
+  Encoded() = default;
   Encoded(std::uint64_t stamp, const std::vector<Reservation> &rows,
           const std::vector<ReservationDigest> *digests) {
     const std::size_t n = rows.size();
@@ -83,9 +88,9 @@ public:
     // rows mostly share their codes, so the map is asked only when a code changes.
     std::vector<std::string_view> texts{std::string_view()};
     std::unordered_map<std::string_view, std::uint32_t> indexOf{{std::string_view(), 0}};
-    std::vector<std::array<std::uint32_t, kCodes>> codeOf(n);
+    std::vector<Codes> codeOf(n);
     std::array<const std::string *, kCodes> last{};
-    std::array<std::uint32_t, kCodes> lastIndex{};
+    Codes lastIndex{};
     std::size_t idBytes = 0;
     for (std::size_t i = 0; i < n; ++i) {
       const Reservation &r = rows[i];
@@ -104,40 +109,77 @@ public:
         codeOf[i][k] = lastIndex[k];
       }
     }
+    allocate(n, idBytes, texts);
+    // Second pass: every field into its column.
+    for (std::size_t i = 0; i < n; ++i)
+      putRow(rows[i], codeOf[i], digests ? (*digests)[i] : digestOf(rows[i]));
+    finish(stamp, texts);
+  }
+
+  /// Room for n rows with idBytes of ids in all and these texts (index 0 the empty one).
+  void allocate(std::size_t n, std::size_t idBytes, const std::vector<std::string_view> &texts) {
     std::size_t textBytes = 4;
     for (std::string_view t : texts)
       textBytes += 4 + t.size();
-    const Layout at(n, idBytes);
-    payloadBytes_ = at.texts + textBytes;
+    at_ = Layout(n, idBytes);
+    idBytes_ = idBytes;
+    payloadBytes_ = at_.texts + textBytes;
     size_ = kCacheHeaderBytes + payloadBytes_;
-    // Not zero-filled: every byte is written below.
+    // Not zero-filled: every byte is written before finish() returns.
     bytes_.reset(new char[size_]);
     adviseHugePages(bytes_.get(), size_);
+    row_ = 0;
+    idPos_ = at_.ids;
+  }
+  /// The next row, from a reservation, its code indexes and its digest.
+  void putRow(const Reservation &r, const Codes &codes, const ReservationDigest &d) {
     char *p = bytes_.get() + kCacheHeaderBytes;
-
-    // Second pass: every field into its column.
-    std::size_t idPos = at.ids;
-    for (std::size_t i = 0; i < n; ++i) {
-      const Reservation &r = rows[i];
-      store(p + at.idLengths + 4 * i, static_cast<std::uint32_t>(r.id.size()));
-      if (!r.id.empty())
-        std::memcpy(p + idPos, r.id.data(), r.id.size());
-      idPos += r.id.size();
-      p[at.status + i] = static_cast<char>(static_cast<std::uint8_t>(r.status));
-      store(p + at.date(0, i), r.bookedOn.days());
-      store(p + at.date(1, i), r.cancelledOn ? r.cancelledOn->days() : kNoDate);
-      store(p + at.date(2, i), r.arrival.days());
-      store(p + at.date(3, i), r.departure.days());
-      store(p + at.rooms + 4 * i, static_cast<std::int32_t>(r.rooms));
-      // -0 as 0, as SQLite stores it, so the snapshot reads back what the table would.
-      store(p + at.rate + 8 * i, r.rate == 0.0 ? 0.0 : r.rate);
-      for (std::size_t k = 0; k < kCodes; ++k)
-        store(p + at.code(k, i), codeOf[i][k]);
-      const ReservationDigest d = digests ? (*digests)[i] : digestOf(r);
-      store(p + at.digests + 16 * i, d.a);
-      store(p + at.digests + 16 * i + 8, d.b);
+    const std::size_t i = row_++;
+    store(p + at_.idLengths + 4 * i, static_cast<std::uint32_t>(r.id.size()));
+    if (!r.id.empty())
+      std::memcpy(p + idPos_, r.id.data(), r.id.size());
+    idPos_ += r.id.size();
+    p[at_.status + i] = static_cast<char>(static_cast<std::uint8_t>(r.status));
+    store(p + at_.date(0, i), r.bookedOn.days());
+    store(p + at_.date(1, i), r.cancelledOn ? r.cancelledOn->days() : kNoDate);
+    store(p + at_.date(2, i), r.arrival.days());
+    store(p + at_.date(3, i), r.departure.days());
+    store(p + at_.rooms + 4 * i, static_cast<std::int32_t>(r.rooms));
+    // -0 as 0, as SQLite stores it, so the snapshot reads back what the table would.
+    store(p + at_.rate + 8 * i, r.rate == 0.0 ? 0.0 : r.rate);
+    for (std::size_t k = 0; k < kCodes; ++k)
+      store(p + at_.code(k, i), codes[k]);
+    store(p + at_.digests + 16 * i, d.a);
+    store(p + at_.digests + 16 * i + 8, d.b);
+  }
+  /// The next row, copied from row o of another snapshot's payload (laid out as `from`) whose
+  /// texts are the first ones of this one's, so its code indexes stay as they are.
+  void copyRow(const char *from, const Layout &in, std::size_t o, std::string_view id) {
+    char *p = bytes_.get() + kCacheHeaderBytes;
+    const std::size_t i = row_++;
+    store(p + at_.idLengths + 4 * i, static_cast<std::uint32_t>(id.size()));
+    if (!id.empty())
+      std::memcpy(p + idPos_, id.data(), id.size());
+    idPos_ += id.size();
+    p[at_.status + i] = from[in.status + o];
+    for (std::size_t k = 0; k < 4; ++k)
+      std::memcpy(p + at_.date(k, i), from + in.date(k, o), 4);
+    std::memcpy(p + at_.rooms + 4 * i, from + in.rooms + 4 * o, 4);
+    std::memcpy(p + at_.rate + 8 * i, from + in.rate + 8 * o, 8);
+    for (std::size_t k = 0; k < kCodes; ++k)
+      std::memcpy(p + at_.code(k, i), from + in.code(k, o), 4);
+    std::memcpy(p + at_.digests + 16 * i, from + in.digests + 16 * o, 16);
+  }
+  /// After the last row: the texts and the header. False (and no bytes) when the rows put do
+  /// not fill what allocate() made room for.
+  bool finish(std::uint64_t stamp, const std::vector<std::string_view> &texts) {
+    if (row_ != at_.n || idPos_ != at_.ids + idBytes_) {
+      bytes_.reset();
+      size_ = 0;
+      return false;
     }
-    char *t = p + at.texts;
+    char *p = bytes_.get() + kCacheHeaderBytes;
+    char *t = p + at_.texts;
     store(t, static_cast<std::uint32_t>(texts.size()));
     t += 4;
     for (std::string_view text : texts) {
@@ -152,17 +194,19 @@ public:
     store(h + 8, kFormat);
     store(h + 12, kCacheByteOrder);
     store(h + 16, stamp);
-    store(h + 24, static_cast<std::uint64_t>(n));
+    store(h + 24, static_cast<std::uint64_t>(at_.n));
     store(h + 32, static_cast<std::uint64_t>(payloadBytes_));
     store(h + 40, cacheChecksum(std::string_view(p, payloadBytes_)));
-    store(h + 48, static_cast<std::uint64_t>(idBytes));
+    store(h + 48, static_cast<std::uint64_t>(idBytes_));
     store(h + 56, std::uint64_t{0});
+    return true;
   }
   std::string_view bytes() const { return {bytes_.get(), size_}; }
 
 private:
   std::unique_ptr<char[]> bytes_;
-  std::size_t size_ = 0, payloadBytes_ = 0;
+  std::size_t size_ = 0, payloadBytes_ = 0, idBytes_ = 0, row_ = 0, idPos_ = 0;
+  Layout at_{0, 0};
 };
 
 /// A snapshot's bytes checked whole (header, stamp, sizes, checksum, texts) and its columns
@@ -235,33 +279,53 @@ public:
     const char *d = payload_.data() + layout_.digests + 16 * i;
     return {load<std::uint64_t>(d), load<std::uint64_t>(d + 8)};
   }
-  /// Row i without its id; nullopt when a field is out of range (a status or a code index).
-  bool fill(std::size_t i, Reservation &r) const {
+  /// False when a field of row i is out of range (its status or a code index).
+  bool valid(std::size_t i) const {
     const char *p = payload_.data();
-    const auto status = static_cast<std::uint8_t>(p[layout_.status + i]);
-    if (status > static_cast<std::uint8_t>(ReservationStatus::CheckedOut))
+    if (static_cast<std::uint8_t>(p[layout_.status + i]) >
+        static_cast<std::uint8_t>(ReservationStatus::CheckedOut))
       return false;
-    std::array<std::uint32_t, kCodes> code{};
-    for (std::size_t k = 0; k < kCodes; ++k) {
-      code[k] = load<std::uint32_t>(p + layout_.code(k, i));
-      if (code[k] >= texts_.size())
+    for (std::size_t k = 0; k < kCodes; ++k)
+      if (load<std::uint32_t>(p + layout_.code(k, i)) >= texts_.size())
         return false;
-    }
-    r.status = static_cast<ReservationStatus>(status);
-    r.bookedOn = Date::fromDays(load<std::int32_t>(p + layout_.date(0, i)));
-    if (const auto cancelled = load<std::int32_t>(p + layout_.date(1, i)); cancelled != kNoDate)
-      r.cancelledOn = Date::fromDays(cancelled);
-    r.arrival = Date::fromDays(load<std::int32_t>(p + layout_.date(2, i)));
-    r.departure = Date::fromDays(load<std::int32_t>(p + layout_.date(3, i)));
-    r.rooms = load<std::int32_t>(p + layout_.rooms + 4 * i);
-    r.rate = load<double>(p + layout_.rate + 8 * i);
-    r.roomType = texts_[code[0]];
-    r.segment = texts_[code[1]];
-    r.channel = texts_[code[2]];
-    r.currency = texts_[code[3]];
-    r.blockId = texts_[code[4]];
     return true;
   }
+  /// Row i's dates, rooms, rate and status; requires valid(i).
+  ReservationFacts facts(std::size_t i) const {
+    const char *p = payload_.data();
+    ReservationFacts f;
+    f.status = static_cast<ReservationStatus>(static_cast<std::uint8_t>(p[layout_.status + i]));
+    f.bookedOn = Date::fromDays(load<std::int32_t>(p + layout_.date(0, i)));
+    if (const auto cancelled = load<std::int32_t>(p + layout_.date(1, i)); cancelled != kNoDate)
+      f.cancelledOn = Date::fromDays(cancelled);
+    f.arrival = Date::fromDays(load<std::int32_t>(p + layout_.date(2, i)));
+    f.departure = Date::fromDays(load<std::int32_t>(p + layout_.date(3, i)));
+    f.rooms = load<std::int32_t>(p + layout_.rooms + 4 * i);
+    f.rate = load<double>(p + layout_.rate + 8 * i);
+    return f;
+  }
+  /// Row i without its id; false when a field is out of range (see valid()).
+  bool fill(std::size_t i, Reservation &r) const {
+    if (!valid(i))
+      return false;
+    const ReservationFacts f = facts(i);
+    r.status = f.status;
+    r.bookedOn = f.bookedOn;
+    r.cancelledOn = f.cancelledOn;
+    r.arrival = f.arrival;
+    r.departure = f.departure;
+    r.rooms = f.rooms;
+    r.rate = f.rate;
+    const char *p = payload_.data();
+    std::string *const code[kCodes] = {&r.roomType, &r.segment, &r.channel, &r.currency,
+                                       &r.blockId};
+    for (std::size_t k = 0; k < kCodes; ++k)
+      *code[k] = texts_[load<std::uint32_t>(p + layout_.code(k, i))];
+    return true;
+  }
+  const char *payload() const { return payload_.data(); }
+  const Layout &layout() const { return layout_; }
+  const std::vector<std::string_view> &texts() const { return texts_; }
 
 private:
   std::string_view payload_;
@@ -270,18 +334,11 @@ private:
   bool ok_ = false;
 };
 
-/// The rows of a checked snapshot, with room for `spare` more; with `digests`, their stored
-/// digests too (in the same order, with the same spare room).
-std::optional<std::vector<Reservation>> rowsOf(const Decoded &in, std::size_t spare = 0,
-                                               std::vector<ReservationDigest> *digests = nullptr) {
+std::optional<std::vector<Reservation>> rowsOf(const Decoded &in) {
   if (!in.ok())
     return std::nullopt;
   std::vector<Reservation> rows;
-  reserveLarge(rows, in.size() + spare);
-  if (digests) {
-    digests->clear();
-    digests->reserve(in.size() + spare);
-  }
+  reserveLarge(rows, in.size());
   bool good = true;
   in.forEachId([&](std::size_t i, std::string_view id) {
     if (!good)
@@ -289,8 +346,6 @@ std::optional<std::vector<Reservation>> rowsOf(const Decoded &in, std::size_t sp
     Reservation &r = rows.emplace_back();
     r.id.assign(id);
     good = in.fill(i, r);
-    if (digests)
-      digests->push_back(in.digest(i));
   });
   if (!good)
     return std::nullopt;
@@ -356,7 +411,7 @@ bool writeReservationSnapshot(const fs::path &file, std::uint64_t stamp,
 bool updateReservationSnapshot(
     const fs::path &file, std::uint64_t before, std::uint64_t after,
     std::vector<Reservation> changed,
-    const std::function<void(const std::vector<Reservation> &rows)> &withRows) {
+    const std::function<void(std::span<const ReservationFacts> rows)> &withRows) {
   // Both in id order (the store's ORDER BY id compares bytes, as std::string's < does); a
   // changed row replaces the stored row with its id, a new id is inserted in its place.
   auto byId = [](const Reservation &a, const Reservation &b) { return a.id < b.id; };
@@ -375,12 +430,15 @@ bool updateReservationSnapshot(
   const Decoded in(bytes, before);
   if (!in.ok())
     return false;
-  // How many changed ids are new, from the ids in place (no row decoded yet): the rows are then
-  // decoded once, with room for them, and merged in place from the back. A daily extract
-  // changes a few hundred of a million rows: a second million-row vector (232 MB, most of the
-  // update's time went on the kernel zeroing its pages) and a digest per row are not needed.
-  std::size_t added = 0;
-  bool inOrder = true; // what every snapshot holds; without it the merge below would be wrong
+  // The merge copies the old columns row by row into the new file's and puts the changed rows
+  // among them; no row is decoded into a Reservation. A daily extract changes a few hundred of
+  // a million rows: decoding them all (232 MB, most of it the kernel zeroing fresh pages) and
+  // encoding them again took most of the update's time.
+  //
+  // First pass over the ids: are they in order (what every snapshot holds; the merge needs
+  // it), and how many changed ids are new, with how many bytes.
+  std::size_t added = 0, addedIdBytes = 0;
+  bool inOrder = true;
   {
     auto c = changed.begin();
     std::string_view previous;
@@ -388,44 +446,83 @@ bool updateReservationSnapshot(
       if (i > 0 && !(previous < id))
         inOrder = false;
       previous = id;
-      for (; c != changed.end() && std::string_view(c->id) < id; ++c)
+      for (; c != changed.end() && std::string_view(c->id) < id; ++c) {
         ++added;
+        addedIdBytes += c->id.size();
+      }
       if (c != changed.end() && std::string_view(c->id) == id)
         ++c;
     });
-    added += static_cast<std::size_t>(changed.end() - c);
+    for (; c != changed.end(); ++c) {
+      ++added;
+      addedIdBytes += c->id.size();
+    }
   }
   if (!inOrder)
     return false;
-  std::vector<ReservationDigest> digests;
-  auto rows = rowsOf(in, added, &digests);
-  if (!rows)
-    return false;
-  std::vector<Reservation> &merged = *rows;
-  // Back to front: old rows after the changed id move up by the number of new ids still to
-  // place (k − i); a changed row takes its id's place, or the gap above it. The rows before the
-  // first changed id stay where they are.
-  std::size_t i = merged.size(), k = i + added;
-  merged.resize(k);
-  digests.resize(k);
-  for (auto c = changed.rbegin(); c != changed.rend(); ++c) {
-    for (; i > 0 && merged[i - 1].id > c->id; --i, --k)
-      if (k != i) {
-        merged[k - 1] = std::move(merged[i - 1]);
-        digests[k - 1] = digests[i - 1];
-      }
-    if (i > 0 && merged[i - 1].id == c->id)
-      --i;
-    digests[k - 1] = digestOf(*c);
-    merged[--k] = std::move(*c);
+  // The old texts keep their indexes (the copied rows' code columns stay valid); the changed
+  // rows' codes that are new come after them.
+  std::vector<std::string_view> texts = in.texts();
+  std::unordered_map<std::string_view, std::uint32_t> indexOf;
+  for (std::size_t k = 0; k < texts.size(); ++k)
+    indexOf.try_emplace(texts[k], static_cast<std::uint32_t>(k));
+  std::vector<Encoded::Codes> codesOf(changed.size());
+  for (std::size_t j = 0; j < changed.size(); ++j) {
+    const Reservation &r = changed[j];
+    const std::array<const std::string *, kCodes> code = {&r.roomType, &r.segment, &r.channel,
+                                                          &r.currency, &r.blockId};
+    for (std::size_t k = 0; k < kCodes; ++k) {
+      auto [it, isNew] = indexOf.try_emplace(*code[k], static_cast<std::uint32_t>(texts.size()));
+      if (isNew)
+        texts.push_back(*code[k]);
+      codesOf[j][k] = it->second;
+    }
   }
-  // The file is written on a second thread while `withRows` works from the same rows (both
-  // only read them): at a million rows, 0.3 s of encoding and writing beside the kept cube's
-  // 0.1 s. With no thread to be had, one after the other.
+  const std::size_t oldIdBytes = in.layout().status - in.layout().ids;
+
+  Encoded out;
+  const std::size_t n = in.size() + added;
+  out.allocate(n, oldIdBytes + addedIdBytes, texts);
+  std::vector<ReservationFacts> facts;
+  if (withRows)
+    reserveLarge(facts, n);
+  bool good = true;
+  std::size_t j = 0;
+  auto putChanged = [&] {
+    out.putRow(changed[j], codesOf[j], digestOf(changed[j]));
+    if (withRows)
+      facts.push_back(ReservationFacts::of(changed[j]));
+    ++j;
+  };
+  in.forEachId([&](std::size_t o, std::string_view id) {
+    if (!good)
+      return;
+    while (j < changed.size() && std::string_view(changed[j].id) < id)
+      putChanged();
+    if (j < changed.size() && std::string_view(changed[j].id) == id) {
+      putChanged(); // replaces stored row o
+      return;
+    }
+    if (!in.valid(o)) {
+      good = false;
+      return;
+    }
+    out.copyRow(in.payload(), in.layout(), o, id);
+    if (withRows)
+      facts.push_back(in.facts(o));
+  });
+  while (good && j < changed.size())
+    putChanged();
+  if (!good || !out.finish(after, texts))
+    return false;
+
+  // The file is written on a second thread while `withRows` works from the merged facts: at a
+  // million rows, writing 77 MB beside the kept cube's 0.1 s. With no thread to be had, one after
+  // the other.
   bool written = false;
   auto write = [&]() noexcept {
     try {
-      written = writeReservationSnapshot(file, after, merged, &digests);
+      written = replaceFile(file, out.bytes());
     } catch (...) {
       written = false; // out of memory, say: only a cache
     }
@@ -444,7 +541,7 @@ bool updateReservationSnapshot(
     }
   } join{writer};
   if (withRows)
-    withRows(merged);
+    withRows(facts);
   if (writer.joinable())
     writer.join();
   return written;

@@ -18,6 +18,7 @@
 #include <filesystem>
 #include <functional>
 #include <optional>
+#include <span>
 #include <vector>
 
 namespace cb {
@@ -51,16 +52,17 @@ bool writeReservationSnapshot(const std::filesystem::path &file, std::uint64_t s
 
 /// After a write that took the store from stamp `before` to `after` by adding or replacing the
 /// reservations `changed` (and nothing else): when the snapshot at `file` holds the rows of
-/// `before`, writes the rows of `after` (the two merged by id) without reading the store. So a
-/// daily extract that changes a few thousand rows keeps the snapshot current for the next read.
-/// Returns false when there was no such snapshot or it could not be written; the next read then
-/// rebuilds it from the store. `withRows`, when given, is called with every row of `after` (in
-/// id order) once they are merged, so an import can keep what it derives from them current too;
-/// it runs on the calling thread while another thread writes the file, so it must only read them.
+/// `before`, writes the rows of `after` (the two merged by id) without reading the store, and
+/// without decoding the rows it keeps (their columns are copied). So a daily extract that
+/// changes a few thousand rows keeps the snapshot current for the next read. Returns false when
+/// there was no such snapshot or it could not be written; the next read then rebuilds it from
+/// the store. `withRows`, when given, is called with the facts of every row of `after` (in id
+/// order), so an import can keep what it derives from them current too (the kept cube); it runs
+/// on the calling thread while another thread writes the file.
 bool updateReservationSnapshot(
     const std::filesystem::path &file, std::uint64_t before, std::uint64_t after,
     std::vector<Reservation> changed,
-    const std::function<void(const std::vector<Reservation> &rows)> &withRows = {});
+    const std::function<void(std::span<const ReservationFacts> rows)> &withRows = {});
 
 /// The snapshot's bytes for `stamp` (what writeReservationSnapshot writes), for tests.
 std::string encodeReservationSnapshot(std::uint64_t stamp, const std::vector<Reservation> &rows,

@@ -608,7 +608,7 @@ TEST(CurveCube, BoundsOfTheReservationsInOnePass) {
   EXPECT_EQ(b.newest, cb::newestActivity(rs));
   EXPECT_EQ(b.firstArrival, d("2026-06-05"));
   EXPECT_EQ(b.firstStay, d("2026-06-08"));
-  const cb::ReservationBounds none = cb::boundsOf({});
+  const cb::ReservationBounds none = cb::boundsOf(std::vector<cb::Reservation>{});
   EXPECT_FALSE(none.newest || none.firstArrival || none.firstStay);
 
   CubeOptions o{d("2026-06-05"), d("2026-06-14"), 20, SeriesBy::Segment, d("2026-05-28")};

@@ -67,6 +67,28 @@ TEST(KeptCube, IsTheTotalOverEveryNightStayedAsOfTheNewestDate) {
   expectSameCube(k.cube, CurveCube::build(rows, o));
 }
 
+// A daily import builds the kept cube from the rows' facts (dates, rooms, rate, status) read
+// from the snapshot's columns: the same cube, bounds and cells, as from the reservations.
+TEST(KeptCube, FromTheFactsOfTheRowsIsTheSameAsFromTheRows) {
+  const auto &rows = sample().reservations;
+  std::vector<cb::ReservationFacts> facts;
+  for (const Reservation &r : rows)
+    facts.push_back(cb::ReservationFacts::of(r));
+  const std::optional<KeptCube> fromFacts = cb::keptCubeOf(facts);
+  ASSERT_TRUE(fromFacts);
+  expectSameKept(*fromFacts, sampleKept());
+  // No row, or day uses only: no kept cube either way.
+  EXPECT_FALSE(cb::keptCubeOf(std::span<const cb::ReservationFacts>()));
+  Reservation dayUse = rows.front();
+  dayUse.departure = dayUse.arrival;
+  const std::vector<cb::ReservationFacts> dayUseOnly = {cb::ReservationFacts::of(dayUse)};
+  EXPECT_FALSE(cb::keptCubeOf(dayUseOnly));
+  // A split needs the codes, which the facts do not carry.
+  CubeOptions o = sampleKept().cube.options();
+  o.by = SeriesBy::Segment;
+  EXPECT_THROW(CurveCube::buildTotal(facts, o), std::invalid_argument);
+}
+
 // What `curves`, `finals` and `backtest` ask for, and a few ranges besides, against the cube
 // built from the reservations.
 TEST(KeptCube, GivesTheCubesTheCommandsAskFor) {
@@ -133,8 +155,8 @@ TEST(KeptCube, DayUsesAndNoNightStayed) {
   expectSameCube(*k->cubeFor(cb::Backtest::cubeOptions(k->bounds, bo, SeriesBy::Total)),
                  cb::Backtest::buildCube(rows, bo, SeriesBy::Total));
 
-  EXPECT_FALSE(cb::keptCubeOf({}));
-  EXPECT_FALSE(cb::keptCubeOf({rows[1]})); // a day use only: no night
+  EXPECT_FALSE(cb::keptCubeOf(std::vector<Reservation>{}));
+  EXPECT_FALSE(cb::keptCubeOf(std::vector<Reservation>{rows[1]})); // a day use only: no night
 }
 
 TEST(KeptCube, FileKeepsEveryCellAndRefusesOtherDataAndDamage) {

@@ -147,21 +147,37 @@ TEST(ReservationSnapshot, UpdateMergesByIdAndTheLastRowOfAnIdWins) {
   EXPECT_FALSE(cb::readReservationSnapshot(file, 1).has_value());
 }
 
-TEST(ReservationSnapshot, UpdateInPlaceGivesWhatAMergeByIdGives) {
-  // The update merges in place from the back. Against a map by id (the last row of an id wins),
-  // over random change sets: ids before the first, between and after the last stored id,
-  // replacements, repeats, none at all. The digests written must be each row's own.
+TEST(ReservationSnapshot, UpdateGivesWhatAMergeByIdGives) {
+  // The update merges the old columns with the changed rows. Against a map by id (the last row of
+  // an id wins), over random change sets: ids before the first, between and after the last stored
+  // id, replacements, repeats, none at all. The digests written must be each row's own.
   cbtest::TempDir dir;
   const fs::path file = dir / "u.snapshot";
   std::mt19937 rng(20261205);
   auto idOf = [](int k) { return fmt::format("R{:05}", k); };
+  // Every field varied, so a column copied from the wrong row shows.
+  auto vary = [&](Reservation r) {
+    r.bookedOn = d(2025, 5, 1) + static_cast<int>(rng() % 30);
+    r.arrival = r.bookedOn + static_cast<int>(rng() % 60);
+    r.departure = r.arrival + static_cast<int>(rng() % 4);
+    if (rng() % 3 == 0) {
+      r.status = ReservationStatus::Cancelled;
+      r.cancelledOn = r.bookedOn + 1;
+    }
+    r.rate = 50.0 + static_cast<double>(rng() % 20000) / 100.0;
+    r.roomType = rng() % 2 ? "DBL" : "TWN";
+    r.channel = rng() % 2 ? "DIRECT" : "";
+    r.currency = rng() % 4 ? "" : "EUR";
+    r.blockId = rng() % 5 ? "" : "GRP-" + std::to_string(rng() % 3);
+    return r;
+  };
   for (int round = 0; round < 200; ++round) {
     std::map<std::string, Reservation> want;
     std::vector<Reservation> base;
     const int stored = static_cast<int>(rng() % 40);
     for (int k = 0; k < stored; ++k) {
       const int key = 2 * k + 1; // odd keys: the even ones between them are new
-      Reservation r = booking(idOf(key), 1 + static_cast<int>(rng() % 5));
+      Reservation r = vary(booking(idOf(key), 1 + static_cast<int>(rng() % 5)));
       base.push_back(r);
       want[r.id] = r;
     }
@@ -170,19 +186,32 @@ TEST(ReservationSnapshot, UpdateInPlaceGivesWhatAMergeByIdGives) {
     const int changes = static_cast<int>(rng() % 12);
     for (int j = 0; j < changes; ++j) {
       // Keys 0 … 2·stored + 2: even ones are new (before, between, after), odd ones stored.
-      Reservation r = booking(idOf(static_cast<int>(rng() % (2 * stored + 3))));
+      Reservation r = vary(booking(idOf(static_cast<int>(rng() % (2 * stored + 3)))));
       r.rooms = 10 + j; // tells repeats of an id apart: the later one wins
       r.segment = rng() % 2 ? "LEIS" : "CORP";
       changed.push_back(r);
       want[r.id] = r;
     }
-    ASSERT_TRUE(cb::updateReservationSnapshot(file, 1, 2, changed)) << "round " << round;
+    std::vector<cb::ReservationFacts> facts;
+    ASSERT_TRUE(cb::updateReservationSnapshot(
+        file, 1, 2, changed,
+        [&](std::span<const cb::ReservationFacts> f) { facts.assign(f.begin(), f.end()); }))
+        << "round " << round;
     const auto rows = cb::readReservationSnapshot(file, 2);
     ASSERT_TRUE(rows.has_value());
     std::vector<Reservation> expected;
     for (auto &[id, r] : want)
       expected.push_back(r);
     ASSERT_EQ(*rows, expected) << "round " << round;
+    ASSERT_EQ(facts.size(), expected.size());
+    for (std::size_t i = 0; i < facts.size(); ++i) {
+      const cb::ReservationFacts want = cb::ReservationFacts::of(expected[i]);
+      EXPECT_TRUE(facts[i].bookedOn == want.bookedOn && facts[i].cancelledOn == want.cancelledOn &&
+                  facts[i].arrival == want.arrival && facts[i].departure == want.departure &&
+                  facts[i].rooms == want.rooms && facts[i].rate == want.rate &&
+                  facts[i].status == want.status)
+          << "round " << round << " row " << i;
+    }
     std::size_t at = 0;
     ASSERT_TRUE(
         cb::visitSnapshotDigests(file, 2, [&](std::string &&id, const cb::ReservationDigest &dg) {
