@@ -401,6 +401,58 @@ bool visitSnapshotDigests(
   return true;
 }
 
+struct SnapshotDigests::Impl {
+  Impl(const fs::path &file, std::uint64_t stamp) : map(file), in(bytesFor(map, stamp), stamp) {}
+  MappedFile map;
+  Decoded in;
+  /// Where each id starts in the payload, and one past the last.
+  std::vector<std::size_t> starts;
+  std::string_view id(std::size_t i) const {
+    return {in.payload() + starts[i], starts[i + 1] - starts[i]};
+  }
+};
+
+SnapshotDigests::SnapshotDigests(std::unique_ptr<Impl> impl) : impl_(std::move(impl)) {}
+SnapshotDigests::~SnapshotDigests() = default;
+
+std::unique_ptr<SnapshotDigests> SnapshotDigests::open(const fs::path &file, std::uint64_t stamp) {
+  auto impl = std::make_unique<Impl>(file, stamp);
+  if (!impl->in.ok())
+    return nullptr;
+  const Decoded &in = impl->in;
+  impl->starts.reserve(in.size() + 1);
+  bool inOrder = true;
+  std::string_view previous;
+  std::size_t end = in.layout().ids;
+  in.forEachId([&](std::size_t i, std::string_view id) {
+    if (i > 0 && !(previous < id))
+      inOrder = false;
+    previous = id;
+    impl->starts.push_back(end);
+    end += id.size();
+  });
+  impl->starts.push_back(end);
+  if (!inOrder)
+    return nullptr;
+  return std::unique_ptr<SnapshotDigests>(new SnapshotDigests(std::move(impl)));
+}
+
+std::size_t SnapshotDigests::size() const { return impl_->in.size(); }
+
+std::optional<ReservationDigest> SnapshotDigests::find(std::string_view id) const {
+  std::size_t lo = 0, hi = size(); // the first row with an id >= `id` is in [lo, hi]
+  while (lo < hi) {
+    const std::size_t mid = lo + (hi - lo) / 2;
+    if (impl_->id(mid) < id)
+      lo = mid + 1;
+    else
+      hi = mid;
+  }
+  if (lo == size() || impl_->id(lo) != id)
+    return std::nullopt;
+  return impl_->in.digest(lo);
+}
+
 bool writeReservationSnapshot(const fs::path &file, std::uint64_t stamp,
                               const std::vector<Reservation> &rows,
                               const std::vector<ReservationDigest> *digests) {

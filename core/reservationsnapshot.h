@@ -17,8 +17,10 @@
 #include <cstdint>
 #include <filesystem>
 #include <functional>
+#include <memory>
 #include <optional>
 #include <span>
+#include <string_view>
 #include <vector>
 
 namespace cb {
@@ -40,6 +42,30 @@ bool visitSnapshotDigests(
     const std::filesystem::path &file, std::uint64_t stamp,
     const std::function<void(std::string &&id, const ReservationDigest &digest)> &visit,
     const std::function<void(std::size_t rows)> &count = {});
+
+/// The ids and digests of a snapshot, read in place and looked up by binary search over its
+/// sorted ids: what an import of a few hundred rows into a store of a million compares them
+/// with, instead of copying every stored id into memory first (a fifth of a second and 100 MB
+/// at a million rows).
+class SnapshotDigests {
+public:
+  /// nullptr when the snapshot at `file` is missing, damaged, for another stamp, or its ids are
+  /// not in strictly ascending order.
+  static std::unique_ptr<SnapshotDigests> open(const std::filesystem::path &file,
+                                               std::uint64_t stamp);
+  ~SnapshotDigests();
+  SnapshotDigests(const SnapshotDigests &) = delete;
+  SnapshotDigests &operator=(const SnapshotDigests &) = delete;
+  /// The number of rows (of stored reservations).
+  std::size_t size() const;
+  /// The digest stored for `id`; nullopt when the snapshot has no such id.
+  std::optional<ReservationDigest> find(std::string_view id) const;
+
+private:
+  struct Impl;
+  explicit SnapshotDigests(std::unique_ptr<Impl> impl);
+  std::unique_ptr<Impl> impl_;
+};
 
 /// Writes `rows` (in the order given) as the snapshot for `stamp`: to a temporary file in the
 /// same folder, then renamed over `file`. Returns false (and leaves any old file as it was) when

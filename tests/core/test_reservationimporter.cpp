@@ -506,6 +506,69 @@ TEST(ReservationImporter, DigestsFromTheSnapshotGiveTheSameImports) {
   EXPECT_EQ(again.log.unchanged, 67);
 }
 
+// A file much smaller than the store (a daily extract) looks its ids up in the snapshot in
+// place instead of copying every stored id first. The same counts and rows as through the
+// table: unchanged, changed and new ids (before the first stored id, between two, after the
+// last), in no order, and a duplicate id within the file.
+TEST(ReservationImporter, ASmallFileLooksItsIdsUpInTheSnapshotWithTheSameResults) {
+  cbtest::TempDir tmp;
+  const std::string base = ",booked,2026-01-01,,2026-03-01,2026-03-03,1,DBL,LEI,WEB,90,EUR,B1\n";
+  std::string all = kHeader;
+  for (int i = 1; i <= 2000; ++i)
+    all += idOf('R', i) + base;
+  cbtest::writeFile(tmp / "all.csv", all);
+  const std::string changed = ",cancelled,2026-01-01,2026-02-01,2026-03-01,2026-03-03,1,DBL,LEI,"
+                              "WEB,90,EUR,B1\n";
+  // Unchanged: R5, R77, R500, R1999. Changed: R1, R10, R1000, R2000. New: A0, R10a, R5000, Z9.
+  std::string daily = kHeader;
+  for (const auto &[id, row] : std::vector<std::pair<std::string, std::string>>{{"R1999", base},
+                                                                                {"Z9", base},
+                                                                                {"R10", changed},
+                                                                                {"R5", base},
+                                                                                {"A0", changed},
+                                                                                {"R1000", changed},
+                                                                                {"R5000", base},
+                                                                                {"R500", base},
+                                                                                {"R2000", changed},
+                                                                                {"R10a", base},
+                                                                                {"R77", base},
+                                                                                {"R1", changed}})
+    daily += id + row;
+  cbtest::writeFile(tmp / "daily.csv", daily);
+  cbtest::writeFile(tmp / "twice.csv", kHeader + "R7" + base + "R8" + changed + "R7" + changed);
+
+  cbtest::TempDir withDir, withoutDir;
+  auto with = newStore(withDir);
+  auto without = newStore(withoutDir);
+  ASSERT_TRUE(cb::importReservations(*with, tmp / "all.csv").written);
+  ASSERT_TRUE(cb::importReservations(*without, tmp / "all.csv").written);
+  ASSERT_TRUE(fs::exists(cb::snapshotPathFor(with->path())));
+  for (const char *file : {"daily.csv", "daily.csv", "twice.csv"}) {
+    fs::remove(cb::snapshotPathFor(without->path()));
+    const auto a = cb::importReservations(*with, tmp / file);
+    const auto b = cb::importReservations(*without, tmp / file);
+    EXPECT_EQ(a.written, b.written) << file;
+    EXPECT_EQ(a.log.added, b.log.added) << file;
+    EXPECT_EQ(a.log.updated, b.log.updated) << file;
+    EXPECT_EQ(a.log.unchanged, b.log.unchanged) << file;
+    EXPECT_EQ(a.log.rejected, b.log.rejected) << file;
+    fs::remove(cb::snapshotPathFor(without->path()));
+    EXPECT_EQ(with->reservations(), without->reservations()) << file;
+  }
+  // Counted by hand, the first time the daily file is imported (see the list above).
+  auto fresh = newStore(tmp);
+  ASSERT_TRUE(cb::importReservations(*fresh, tmp / "all.csv").written);
+  const auto first = cb::importReservations(*fresh, tmp / "daily.csv");
+  EXPECT_EQ(first.log.added, 4);
+  EXPECT_EQ(first.log.updated, 4);
+  EXPECT_EQ(first.log.unchanged, 4);
+  // Twice the same id: refused, naming the first line.
+  const auto twice = cb::importReservations(*fresh, tmp / "twice.csv");
+  EXPECT_FALSE(twice.written);
+  EXPECT_TRUE(hasFinding(twice.findings, "twice.csv:4:1: reservation_id \"R7\" was already used "
+                                         "on line 2"));
+}
+
 // An import compares each row with a digest of the stored one instead of asking the store; a
 // change in any single field must still be written (and counted) as an update, in any row order.
 TEST(ReservationImporter, EveryFieldChangeIsSeenOnReimport) {

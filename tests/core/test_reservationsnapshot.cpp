@@ -224,6 +224,39 @@ TEST(ReservationSnapshot, UpdateGivesWhatAMergeByIdGives) {
   }
 }
 
+TEST(ReservationSnapshot, DigestsLookedUpInPlaceFindEveryStoredIdAndNoOther) {
+  cbtest::TempDir dir;
+  const fs::path file = dir / "d.snapshot";
+  std::vector<Reservation> rows = varied();
+  std::sort(rows.begin(), rows.end(),
+            [](const Reservation &a, const Reservation &b) { return a.id < b.id; });
+  ASSERT_TRUE(cb::writeReservationSnapshot(file, 5, rows));
+  const auto digests = cb::SnapshotDigests::open(file, 5);
+  ASSERT_TRUE(digests);
+  EXPECT_EQ(digests->size(), rows.size());
+  for (const Reservation &r : rows) {
+    const auto found = digests->find(r.id);
+    ASSERT_TRUE(found) << r.id;
+    EXPECT_TRUE(*found == cb::digestOf(r)) << r.id;
+  }
+  // Before the first id, between two, after the last, a prefix, a longer id, the empty id.
+  for (const std::string &id :
+       std::vector<std::string>{"A0", "A15", "A1\x01", "ZZZ", "A", rows.back().id + "x", ""})
+    EXPECT_FALSE(digests->find(id)) << id;
+  EXPECT_FALSE(cb::SnapshotDigests::open(file, 6)); // another stamp
+  EXPECT_FALSE(cb::SnapshotDigests::open(dir / "none.snapshot", 5));
+  // Not in id order (no snapshot Curvebench writes): refused, as a binary search would miss.
+  std::reverse(rows.begin(), rows.end());
+  ASSERT_TRUE(cb::writeReservationSnapshot(file, 5, rows));
+  EXPECT_FALSE(cb::SnapshotDigests::open(file, 5));
+  // An empty snapshot finds nothing.
+  ASSERT_TRUE(cb::writeReservationSnapshot(file, 7, {}));
+  const auto none = cb::SnapshotDigests::open(file, 7);
+  ASSERT_TRUE(none);
+  EXPECT_EQ(none->size(), 0u);
+  EXPECT_FALSE(none->find("A1"));
+}
+
 TEST(ReservationSnapshot, NegativeZeroRateIsStoredAsZeroAsSqliteDoes) {
   Reservation r = booking("Z1");
   r.rate = -0.0;
