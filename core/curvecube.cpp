@@ -309,6 +309,11 @@ CurveCube CurveCube::buildFrom(const Rows &reservations, const CubeOptions &opti
         if (s >= 0)
           s = rank[static_cast<std::size_t>(s)];
     }
+  } else {
+    // Facts carry no codes: buildTotal() refuses a split before it gets here.
+    static_assert(std::is_same_v<Rows, std::span<const ReservationFacts>>);
+    if (c.by_ != SeriesBy::Total)
+      throw std::invalid_argument("a split needs the reservations' codes");
   }
 
   const double wanted =

@@ -455,11 +455,9 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
   // first was most of such an import (measured: 0.25 s of 0.7 s at a million rows). A file of
   // more than a sixteenth of the store copies them: one lookup per row then costs more.
   std::unique_ptr<SnapshotDigests> storedLookup;
-  if (!emptyBefore) {
-    storedLookup = SnapshotDigests::open(snapshotPathFor(store.path()), stampBefore);
-    if (storedLookup && storedLookup->size() / 16 < std::max<std::size_t>(fileRows, 1))
-      storedLookup.reset();
-  }
+  if (!emptyBefore)
+    storedLookup = SnapshotDigests::open(snapshotPathFor(store.path()), stampBefore,
+                                         16 * std::max<std::size_t>(fileRows, 1));
   if (storedLookup) {
     ids.lookUpStoredIn(storedLookup.get());
     storedBefore = static_cast<std::int64_t>(storedLookup->size());
@@ -573,6 +571,9 @@ ImportReport importReservations(Store &store, const std::filesystem::path &file,
     }
   }
 
+  // No id is looked up any more: the snapshot's mapping can go before the commit and the update.
+  ids.lookUpStoredIn(nullptr);
+  storedLookup.reset();
   if (readFailed())
     return failed();
   {

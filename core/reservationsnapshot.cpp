@@ -402,7 +402,14 @@ bool visitSnapshotDigests(
 }
 
 struct SnapshotDigests::Impl {
-  Impl(const fs::path &file, std::uint64_t stamp) : map(file), in(bytesFor(map, stamp), stamp) {}
+  Impl(const fs::path &file, std::uint64_t stamp, std::size_t minRows)
+      : map(file), in(enoughRows(bytesFor(map, stamp), minRows), stamp) {}
+  /// `bytes` when their header counts at least minRows rows; else none (Decoded refuses them).
+  static std::string_view enoughRows(std::string_view bytes, std::size_t minRows) {
+    if (bytes.size() < kCacheHeaderBytes || load<std::uint64_t>(bytes.data() + 24) < minRows)
+      return {};
+    return bytes;
+  }
   MappedFile map;
   Decoded in;
   /// Where each id starts in the payload, and one past the last.
@@ -415,8 +422,9 @@ struct SnapshotDigests::Impl {
 SnapshotDigests::SnapshotDigests(std::unique_ptr<Impl> impl) : impl_(std::move(impl)) {}
 SnapshotDigests::~SnapshotDigests() = default;
 
-std::unique_ptr<SnapshotDigests> SnapshotDigests::open(const fs::path &file, std::uint64_t stamp) {
-  auto impl = std::make_unique<Impl>(file, stamp);
+std::unique_ptr<SnapshotDigests> SnapshotDigests::open(const fs::path &file, std::uint64_t stamp,
+                                                       std::size_t minRows) {
+  auto impl = std::make_unique<Impl>(file, stamp, minRows);
   if (!impl->in.ok())
     return nullptr;
   const Decoded &in = impl->in;
@@ -475,8 +483,9 @@ bool updateReservationSnapshot(
         return a.id == b.id;
       }).base());
 
-  const MappedFile map(file);
-  const std::string_view bytes = bytesFor(map, before);
+  // The old file's mapping is let go once the new bytes are made (before they are written).
+  auto map = std::make_unique<MappedFile>(file);
+  const std::string_view bytes = bytesFor(*map, before);
   if (bytes.empty())
     return false;
   const Decoded in(bytes, before);
@@ -567,6 +576,8 @@ bool updateReservationSnapshot(
     putChanged();
   if (!good || !out.finish(after, texts))
     return false;
+  texts.clear(); // views into the mapping
+  map.reset();
 
   // The file is written on a second thread while `withRows` works from the merged facts: at a
   // million rows, writing 77 MB beside the kept cube's 0.1 s. With no thread to be had, one after

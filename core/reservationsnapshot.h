@@ -50,9 +50,11 @@ bool visitSnapshotDigests(
 class SnapshotDigests {
 public:
   /// nullptr when the snapshot at `file` is missing, damaged, for another stamp, or its ids are
-  /// not in strictly ascending order.
+  /// not in strictly ascending order; also when it holds fewer than `minRows` rows (read from
+  /// its header before anything is checked, so a caller that only wants a large one pays little
+  /// for a small one).
   static std::unique_ptr<SnapshotDigests> open(const std::filesystem::path &file,
-                                               std::uint64_t stamp);
+                                               std::uint64_t stamp, std::size_t minRows = 0);
   ~SnapshotDigests();
   SnapshotDigests(const SnapshotDigests &) = delete;
   SnapshotDigests &operator=(const SnapshotDigests &) = delete;

@@ -567,6 +567,30 @@ TEST(ReservationImporter, ASmallFileLooksItsIdsUpInTheSnapshotWithTheSameResults
   EXPECT_FALSE(twice.written);
   EXPECT_TRUE(hasFinding(twice.findings, "twice.csv:4:1: reservation_id \"R7\" was already used "
                                          "on line 2"));
+  // The ids are found in the snapshot: plant there, for R10, the digest of the row a new file
+  // brings. The import then takes that row as unchanged (the counts come from the digests it
+  // looked up, not from SQLite, which would see the change).
+  std::vector<cb::Reservation> rows = fresh->reservations();
+  std::vector<cb::ReservationDigest> digests;
+  cb::Reservation planted;
+  for (const cb::Reservation &r : rows) {
+    digests.push_back(cb::digestOf(r));
+    if (r.id == "R10") {
+      planted = r;
+      planted.rooms = 3;
+      digests.back() = cb::digestOf(planted);
+    }
+  }
+  ASSERT_EQ(planted.id, "R10");
+  ASSERT_TRUE(cb::writeReservationSnapshot(cb::snapshotPathFor(fresh->path()),
+                                           fresh->reservationStamp(), rows, &digests));
+  std::ostringstream one;
+  cb::writeNativeCsv(one, {planted});
+  cbtest::writeFile(tmp / "planted.csv", one.str());
+  const auto seen = cb::importReservations(*fresh, tmp / "planted.csv");
+  ASSERT_TRUE(seen.written);
+  EXPECT_EQ(seen.log.unchanged, 1);
+  EXPECT_EQ(seen.log.updated, 0);
 }
 
 // An import compares each row with a digest of the stored one instead of asking the store; a
