@@ -158,18 +158,25 @@ TEST(ErrorBands, ConformalCorrectionFromKnownOutcomesOnly) {
 TEST(ErrorBands, RememberedOffsetsGiveWhatAFreshObjectGives) {
   // band() remembers each key's quantiles and correction. Asking one object many keys, in two
   // orders and each twice with other forecasts, must give what a new object gives for each
-  // question alone. Rows as in ConformalCorrectionFromKnownOutcomesOnly.
+  // question alone. Rows as in ConformalCorrectionFromKnownOutcomesOnly for series 0, method 0,
+  // lead 1; the same nights scaled for another series, another method and another lead bucket
+  // (lead 10), so a key that left one of them out would hand one its neighbour's offsets.
   const std::vector<double> residual = {0, 1, 3, 6, 10, 15};
   std::vector<cb::BacktestRow> rows;
-  for (unsigned n = 1; n <= 6; ++n) {
-    cb::BacktestRow r;
-    r.night = cb::Date::fromYmd(2026, 3, n);
-    r.reading = r.night - 1;
-    r.lead = 1;
-    r.forecast = 10;
-    r.final = 10 + residual[n - 1];
-    rows.push_back(r);
-  }
+  for (std::uint32_t series : {0u, 1u})
+    for (std::uint32_t method : {0u, 1u})
+      for (int lead : {1, 10})
+        for (unsigned n = 1; n <= 6; ++n) {
+          cb::BacktestRow r;
+          r.night = cb::Date::fromYmd(2026, 3, n);
+          r.lead = lead;
+          r.reading = r.night - lead;
+          r.series = series;
+          r.method = method;
+          r.forecast = 10;
+          r.final = 10 + residual[n - 1] * (1 + series + 2 * method + (lead > 1 ? 4 : 0));
+          rows.push_back(r);
+        }
   const cb::ErrorWindow window(rows, cb::LeadBuckets{});
   const int bucket = window.buckets().bucketOf(1);
   for (const int calibration : {0, 10}) {
@@ -177,25 +184,37 @@ TEST(ErrorBands, RememberedOffsetsGiveWhatAFreshObjectGives) {
     o.windowDays = 2;
     o.minCount = 1;
     o.calibrationDays = calibration;
-    // Reading dates 28 Feb … 9 Mar: the rows' own (28 Feb … 5 Mar) and later ones no row has.
+    // Reading dates 28 Feb … 9 Mar: the rows' own and later ones no row has.
     std::vector<cb::Date> days;
     for (int d = 0; d < 10; ++d)
       days.push_back(cb::Date::fromYmd(2026, 2, 28) + d);
-    const auto alone = [&](cb::Date t, double f) {
-      const cb::ErrorBands fresh(window, o);
-      return fresh.band(0, 0, bucket, t, f);
+    struct Ask {
+      std::uint32_t series, method;
+      int bucket;
+      cb::Date t;
     };
+    std::vector<Ask> asks;
+    for (std::uint32_t series : {0u, 1u})
+      for (std::uint32_t method : {0u, 1u})
+        for (int b : {bucket, window.buckets().bucketOf(10)})
+          for (cb::Date t : days)
+            asks.push_back({series, method, b, t});
     const cb::ErrorBands kept(window, o);
     for (const bool reverse : {false, true})
-      for (int i = 0; i < int(days.size()); ++i) {
-        const cb::Date t = days[reverse ? days.size() - 1 - i : i];
+      for (std::size_t i = 0; i < asks.size(); ++i) {
+        const Ask &a = asks[reverse ? asks.size() - 1 - i : i];
         for (const double f : {50.0, 20.0, 50.0}) {
-          const auto want = alone(t, f);
-          const auto got = kept.band(0, 0, bucket, t, f);
-          ASSERT_EQ(want.has_value(), got.has_value()) << t.toIso() << " " << f;
+          const cb::ErrorBands fresh(window, o);
+          const auto want = fresh.band(a.series, a.method, a.bucket, a.t, f);
+          const auto got = kept.band(a.series, a.method, a.bucket, a.t, f);
+          const std::string where = a.t.toIso() + " series " + std::to_string(a.series) +
+                                    " method " + std::to_string(a.method) + " bucket " +
+                                    std::to_string(a.bucket) + " calibration " +
+                                    std::to_string(calibration);
+          ASSERT_EQ(want.has_value(), got.has_value()) << where;
           if (want) {
-            EXPECT_EQ(want->lo, got->lo) << t.toIso() << " " << f << " calibration " << calibration;
-            EXPECT_EQ(want->hi, got->hi) << t.toIso() << " " << f << " calibration " << calibration;
+            EXPECT_EQ(want->lo, got->lo) << where;
+            EXPECT_EQ(want->hi, got->hi) << where;
           }
         }
       }
