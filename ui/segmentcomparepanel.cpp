@@ -155,6 +155,8 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   d_->table->horizontalHeader()->setSectionResizeMode(SegmentCompareTable::Segment,
                                                       QHeaderView::Stretch);
   d_->table->setWordWrap(false);
+  // Elided in the middle, a long name keeps its code at the end: "Advance pu…(ADV)".
+  d_->table->setTextElideMode(Qt::ElideMiddle);
   d_->table->verticalHeader()->setDefaultSectionSize(d_->table->fontMetrics().height() + 6);
 
   auto *grid = new QGridLayout;
