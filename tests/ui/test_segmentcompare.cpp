@@ -11,6 +11,7 @@
 #include "ui/workbenchsession.h"
 
 #include <QSignalSpy>
+#include <QTableView>
 #include <QTest>
 #include <qcustomplot.h>
 
@@ -202,6 +203,10 @@ private slots:
     // The booking-window chart draws one bar set per segment shown.
     auto *window = panel.findChild<cbui::SegmentCompareChart *>(QStringLiteral("compareWindow"));
     QCOMPARE(window->plot()->plottableCount(), 1);
+    // A long segment name, cut to fit the table, keeps its code: "Advance pu…(ADV)".
+    auto *table = panel.findChild<QTableView *>(QStringLiteral("compareTable"));
+    QVERIFY(table);
+    QCOMPARE(table->textElideMode(), Qt::ElideMiddle);
     // Exports: PNG and PDF of a chart.
     cbtest::TempDir out;
     QVERIFY(curves->exportTo(QString::fromStdString((out / "c.png").string())));
