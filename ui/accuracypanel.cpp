@@ -5,6 +5,7 @@
 #include "ui/accuracymodel.h"
 #include "ui/csvexport.h"
 #include "ui/tableexport.h"
+#include "ui/tablerows.h"
 
 #include <QComboBox>
 #include <QFileDialog>
@@ -227,8 +228,7 @@ AccuracyPanel::AccuracyPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
        QStringLiteral("In 80 % band %"), QStringLiteral("Overrides"),
        QStringLiteral("Override value added")});
   d_->table->verticalHeader()->hide();
-  // Rows as compact as the other screens' tables: a year's table is 13 methods by 7 leads.
-  d_->table->verticalHeader()->setDefaultSectionSize(d_->table->fontMetrics().height() + 6);
+  useCompactRows(d_->table); // a year's table is 13 methods by 7 leads
   d_->table->setSortingEnabled(false);
   split->addWidget(top);
   split->addWidget(d_->table);

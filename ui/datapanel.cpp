@@ -6,6 +6,7 @@
 #include "ui/findingspanel.h"
 #include "ui/importjob.h"
 #include "ui/tableexport.h"
+#include "ui/tablerows.h"
 
 #include <QComboBox>
 #include <QFileDialog>
@@ -170,7 +171,7 @@ DataPanel::DataPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   auto *previewView = normal(new QTableView);
   previewView->setModel(d_->preview);
   previewView->setObjectName(QStringLiteral("previewTable"));
-  previewView->verticalHeader()->setDefaultSectionSize(previewView->fontMetrics().height() + 6);
+  useCompactRows(previewView);
   previewView->horizontalHeader()->setDefaultSectionSize(96);
   auto *mappingView = normal(new QTableView);
   mappingView->setObjectName(QStringLiteral("mappingTable"));
@@ -178,7 +179,7 @@ DataPanel::DataPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   mappingView->setItemDelegateForColumn(MappingModel::SourceCol, new ColumnDelegate(mappingView));
   mappingView->setEditTriggers(QAbstractItemView::AllEditTriggers);
   mappingView->verticalHeader()->hide();
-  mappingView->verticalHeader()->setDefaultSectionSize(mappingView->fontMetrics().height() + 6);
+  useCompactRows(mappingView);
   mappingView->horizontalHeader()->setStretchLastSection(true);
   mappingView->setColumnWidth(MappingModel::FieldCol, 120);
   mappingView->setColumnWidth(MappingModel::RequiredCol, 64);
@@ -272,7 +273,7 @@ DataPanel::DataPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   logView->setObjectName(QStringLiteral("importLogTable"));
   logView->setModel(d_->log);
   logView->verticalHeader()->hide();
-  logView->verticalHeader()->setDefaultSectionSize(logView->fontMetrics().height() + 6);
+  useCompactRows(logView);
   logView->setSelectionBehavior(QAbstractItemView::SelectRows);
   d_->logView = logView;
   auto *csv = normal(new QPushButton(QStringLiteral("Table CSV…")));

@@ -4,6 +4,7 @@
 #include "ui/horizonchart.h"
 #include "ui/horizonmodel.h"
 #include "ui/tableexport.h"
+#include "ui/tablerows.h"
 #include "ui/workbenchsession.h"
 
 #include <QComboBox>
@@ -143,7 +144,7 @@ HorizonPanel::HorizonPanel(QWidget *parent) : QWidget(parent), d_(new Impl) {
   d_->table->setAlternatingRowColors(true);
   d_->table->setEditTriggers(QAbstractItemView::NoEditTriggers);
   d_->table->verticalHeader()->hide();
-  d_->table->verticalHeader()->setDefaultSectionSize(d_->table->fontMetrics().height() + 6);
+  useCompactRows(d_->table);
   d_->table->horizontalHeader()->setStretchLastSection(true);
   d_->table->horizontalHeader()->setStyleSheet(
       QStringLiteral("QHeaderView::section { padding: 2px 4px; }"));

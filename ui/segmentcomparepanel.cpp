@@ -5,6 +5,7 @@
 #include "ui/segmentcomparechart.h"
 #include "ui/segmentcomparemodel.h"
 #include "ui/tableexport.h"
+#include "ui/tablerows.h"
 #include "ui/workbenchsession.h"
 
 #include <QCheckBox>
@@ -157,7 +158,7 @@ SegmentComparePanel::SegmentComparePanel(QWidget *parent) : QWidget(parent), d_(
   d_->table->setWordWrap(false);
   // Elided in the middle, a long name keeps its code at the end: "Advance pu…(ADV)".
   d_->table->setTextElideMode(Qt::ElideMiddle);
-  d_->table->verticalHeader()->setDefaultSectionSize(d_->table->fontMetrics().height() + 6);
+  useCompactRows(d_->table);
 
   auto *grid = new QGridLayout;
   grid->addWidget(d_->curves, 0, 0);
